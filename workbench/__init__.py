@@ -18,6 +18,14 @@ from workbench.conduction import (
     u_value,
     wall_temperatures,
 )
+from workbench.materials import (
+    FAMILIES,
+    MaterialsFileError,
+    check_materials_file,
+    load_conductivity_curves,
+    load_materials,
+    load_sources,
+)
 from workbench.units import UnitError, format_quantity, parse
 
 __version__ = "0.1.0"
@@ -35,6 +43,12 @@ __all__ = [
     "solve_wall",
     "u_value",
     "wall_temperatures",
+    "FAMILIES",
+    "MaterialsFileError",
+    "check_materials_file",
+    "load_conductivity_curves",
+    "load_materials",
+    "load_sources",
     "UnitError",
     "format_quantity",
     "parse",

@@ -1,0 +1,440 @@
+"""Wall comparison study: candidate materials and build-ups against a heat budget.
+
+The study object holds its inputs as plain SI state, calls the numeric core and
+returns frozen results or DataFrames (with units in ``DataFrame.attrs["units"]``
+and every property's source beside it). It holds no widgets.
+
+A *candidate* is a build-up of layers, inside to outside. Exactly one layer is
+the *sized* layer (its thickness is what the study varies or solves for); the
+others have fixed thicknesses. A bare material id is a one-layer candidate.
+"""
+
+from __future__ import annotations
+
+import warnings
+from collections.abc import Iterable, Sequence
+from dataclasses import dataclass, field
+
+import numpy as np
+import pandas as pd
+
+from workbench import conduction
+from workbench._checks import ValidityWarning, finite, nonnegative, positive
+
+__all__ = ["Layer", "Candidate", "HeatBudget", "WallStudy", "WALL_ASSUMPTIONS"]
+
+#: Assumptions every wall result rests on (shown in reports and the workbench).
+WALL_ASSUMPTIONS = (
+    "Steady one-dimensional conduction through plane layers in series (Fourier's law).",
+    "Surface resistances are constants per side (ISO 6946:2017 Table 7 conventional values by default).",
+    "Where a k(T) curve is tabulated, the sized layer uses the integral-mean conductivity between its "
+    "own face temperatures at the design point; elsewhere the table value at its stated temperature.",
+    "Edges, corners, fixings and thermal bridges are not included in a plane-wall result.",
+    "Property values are typical table values with their stated sources; costs are demo values.",
+)
+
+
+@dataclass(frozen=True)
+class Layer:
+    """One layer of a candidate build-up.
+
+    Parameters
+    ----------
+    material : str
+        Material id in the materials table.
+    thickness : float or None
+        Fixed thickness [m]; ``None`` marks the sized layer.
+    """
+
+    material: str
+    thickness: float | None = None
+
+    def __post_init__(self):
+        if self.thickness is not None:
+            positive(f"thickness of layer {self.material!r}", self.thickness, "m")
+
+
+@dataclass(frozen=True)
+class Candidate:
+    """A named build-up, inside to outside, with exactly one sized layer."""
+
+    name: str
+    layers: tuple[Layer, ...]
+
+    def __post_init__(self):
+        sized = [i for i, lay in enumerate(self.layers) if lay.thickness is None]
+        if len(sized) != 1:
+            raise ValueError(
+                f"candidate {self.name!r}: needs exactly one layer without a thickness "
+                f"(the layer to size), found {len(sized)}"
+            )
+
+    @property
+    def sized_index(self) -> int:
+        return next(i for i, lay in enumerate(self.layers) if lay.thickness is None)
+
+    @property
+    def sized_material(self) -> str:
+        return self.layers[self.sized_index].material
+
+    @classmethod
+    def single(cls, material: str, name: str | None = None) -> Candidate:
+        return cls(name or material, (Layer(material),))
+
+    @classmethod
+    def coerce(cls, item: str | Candidate) -> Candidate:
+        if isinstance(item, Candidate):
+            return item
+        if isinstance(item, str):
+            return cls.single(item)
+        raise ValueError(f"candidates: expected a material id or a Candidate, got {item!r}")
+
+
+_BUDGET_KINDS = {"flux": "W/m²", "power": "W", "u_value": "W/(m²·K)"}
+
+
+@dataclass(frozen=True)
+class HeatBudget:
+    """The largest heat flow the wall may pass.
+
+    ``kind`` is ``"flux"`` [W/m²], ``"power"`` [W] over the study's area, or
+    ``"u_value"`` [W/(m²·K)] (air to air).
+    """
+
+    kind: str
+    value: float
+
+    def __post_init__(self):
+        if self.kind not in _BUDGET_KINDS:
+            raise ValueError(f"budget kind: unknown {self.kind!r}; valid: {list(_BUDGET_KINDS)}")
+        positive(f"heat budget ({self.kind})", self.value, _BUDGET_KINDS[self.kind])
+
+    def max_flux(self, delta_t, area: float):
+        """Largest flux [W/m²] at temperature difference ``delta_t`` [K] over ``area`` [m²]."""
+        dt = np.abs(np.asarray(delta_t, float))
+        if self.kind == "flux":
+            return np.broadcast_to(self.value, dt.shape) * 1.0
+        if self.kind == "power":
+            return np.broadcast_to(self.value / area, dt.shape) * 1.0
+        return self.value * dt
+
+
+@dataclass
+class WallStudy:
+    """Compare candidate walls between a hot and a cold side.
+
+    Parameters
+    ----------
+    candidates : sequence of str or Candidate
+        Material ids (one-layer candidates) or build-ups.
+    materials : DataFrame
+        As returned by :func:`workbench.materials.load_materials`.
+    t_inside, t_outside : float
+        Air temperatures on the first-layer side and the last-layer side. [K]
+    area : float
+        Wall area, for total heat flow and the power budget. [m²]
+    r_si, r_se : float
+        Surface resistances. [m²·K/W]
+    budget : HeatBudget or None
+        The heat budget that sets each candidate's required thickness.
+    max_thickness : float or None
+        Largest acceptable sized-layer thickness. [m]
+    thickness : float
+        Design thickness of the sized layer where no budget is set, and the
+        current point of the thickness sweep. [m]
+    k_curves : dict, optional
+        ``id -> (temperatures [K], k [W/(m·K)])`` tabulated k(T).
+    """
+
+    candidates: Sequence[str | Candidate]
+    materials: pd.DataFrame
+    t_inside: float = 293.15
+    t_outside: float = 273.15
+    area: float = 1.0
+    r_si: float = 0.13
+    r_se: float = 0.04
+    budget: HeatBudget | None = None
+    max_thickness: float | None = None
+    thickness: float = 0.05
+    k_curves: dict = field(default_factory=dict)
+
+    def __post_init__(self):
+        self.candidates = [Candidate.coerce(c) for c in self.candidates]
+        if not self.candidates:
+            raise ValueError("candidates: choose at least one material or build-up")
+        names = [c.name for c in self.candidates]
+        dup = sorted({n for n in names if names.count(n) > 1})
+        if dup:
+            raise ValueError(f"candidates: duplicate names {dup}")
+        unknown = sorted(
+            {lay.material for c in self.candidates for lay in c.layers} - set(self.materials.index)
+        )
+        if unknown:
+            raise ValueError(f"candidates: unknown material ids {unknown}; see load_materials().index")
+        finite("t_inside", self.t_inside, "K")
+        finite("t_outside", self.t_outside, "K")
+        positive("area", self.area, "m²")
+        nonnegative("r_si", self.r_si, "m²·K/W")
+        nonnegative("r_se", self.r_se, "m²·K/W")
+        positive("thickness", self.thickness, "m")
+        if self.max_thickness is not None:
+            positive("max_thickness", self.max_thickness, "m")
+        self._arrays = self._layer_arrays()
+
+    # -- property arrays ---------------------------------------------------
+    def _layer_arrays(self) -> dict[str, np.ndarray]:
+        """Per-candidate arrays: sized-layer properties and fixed-layer sums."""
+        m = self.materials
+        k, rho, cost_m2_per_m, r_fixed, mass_fixed, cost_fixed, l_fixed = ([] for _ in range(7))
+        for c in self.candidates:
+            row = m.loc[c.sized_material]
+            k.append(row["conductivity"])
+            rho.append(row["density"])
+            cost_m2_per_m.append(_cost_per_volume(row))
+            fixed = [lay for lay in c.layers if lay.thickness is not None]
+            r_fixed.append(sum(lay.thickness / m.loc[lay.material, "conductivity"] for lay in fixed))
+            mass_fixed.append(sum(lay.thickness * m.loc[lay.material, "density"] for lay in fixed))
+            cost_fixed.append(sum(lay.thickness * _cost_per_volume(m.loc[lay.material]) for lay in fixed))
+            l_fixed.append(sum(lay.thickness for lay in fixed))
+        arr = {
+            "k_table": np.array(k, float),
+            "density": np.array(rho, float),
+            "cost_per_volume": np.array(cost_m2_per_m, float),
+            "r_fixed": np.array(r_fixed, float),
+            "mass_fixed": np.array(mass_fixed, float),
+            "cost_fixed": np.array(cost_fixed, float),
+            "l_fixed": np.array(l_fixed, float),
+        }
+        return arr
+
+    def _state(self) -> tuple:
+        return (self.t_inside, self.t_outside, self.area, self.r_si, self.r_se,
+                self.budget, self.thickness)
+
+    def _k(self) -> np.ndarray:
+        """Effective conductivity of each sized layer at the design point. [W/(m·K)]
+
+        The table value, or for a material with a k(T) curve the integral mean
+        between the layer's own face temperatures at the design point (found by
+        fixed-point iteration; cached per input state).
+        """
+        key = self._state()
+        if getattr(self, "_k_key", None) != key:
+            self._k_cache = self._solve_k_of_t()
+            self._k_key = key
+        return self._k_cache
+
+    @property
+    def names(self) -> list[str]:
+        return [c.name for c in self.candidates]
+
+    @property
+    def delta_t(self) -> float:
+        """Design temperature difference, inside minus outside. [K]"""
+        return float(self.t_inside - self.t_outside)
+
+    @property
+    def other_resistance(self) -> np.ndarray:
+        """Films plus fixed layers of each candidate. [m²·K/W]"""
+        return self.r_si + self.r_se + self._arrays["r_fixed"]
+
+    def max_flux(self, delta_t=None):
+        """The budget as a flux at ``delta_t`` (design ΔT by default) [W/m²], or None."""
+        if self.budget is None:
+            return None
+        return self.budget.max_flux(self.delta_t if delta_t is None else delta_t, self.area)
+
+    # -- sweeps (vectorised; the widgets call these on every slider move) ---
+    def flux(self, thicknesses, delta_t=None) -> np.ndarray:
+        """Air-to-air heat flux [W/m²] for sized-layer thicknesses [m].
+
+        Returns shape ``(n_candidates,) + np.shape(thicknesses)``; with
+        ``delta_t`` an array [K], its axes follow (``delta_t`` broadcasts
+        against the thickness axes as given).
+        """
+        a = self._arrays
+        lt = positive("thicknesses", thicknesses, "m")
+        dt = finite("delta_t", self.delta_t if delta_t is None else delta_t, "K")
+        extra = (1,) * lt.ndim
+        k = self._k().reshape(-1, *extra)
+        r = (self.r_si + self.r_se + a["r_fixed"]).reshape(-1, *extra) + lt / k
+        return dt / r
+
+    def sweep(self, thicknesses, delta_ts) -> np.ndarray:
+        """Flux over candidates x thicknesses x temperature differences. [W/m²]"""
+        lt = positive("thicknesses", thicknesses, "m").reshape(-1, 1)
+        dt = finite("delta_ts", delta_ts, "K").reshape(1, -1)
+        return self.flux(lt, dt)
+
+    def required_thickness(self, delta_t=None) -> np.ndarray:
+        """Sized-layer thickness that meets the budget, per candidate. [m]"""
+        return self._required(self._k(), delta_t)
+
+    def _required(self, k: np.ndarray, delta_t=None) -> np.ndarray:
+        if self.budget is None:
+            raise ValueError("budget: set a heat budget (flux, power or U-value) to size the walls")
+        dt = self.delta_t if delta_t is None else delta_t
+        if dt == 0:
+            raise ValueError("t_inside, t_outside: equal temperatures carry no heat; nothing to size")
+        return conduction.required_thickness(
+            k, dt, self.max_flux(dt), other_resistance=self.other_resistance
+        )
+
+    def mass_per_area(self, thicknesses) -> np.ndarray:
+        """Mass per area [kg/m²] of each candidate at sized thicknesses [m]."""
+        a = self._arrays
+        lt = np.asarray(thicknesses, float)
+        extra = (1,) * lt.ndim
+        return a["mass_fixed"].reshape(-1, *extra) + a["density"].reshape(-1, *extra) * lt
+
+    def cost_per_area(self, thicknesses) -> np.ndarray:
+        """Material cost per area [currency/m²] at sized thicknesses [m]."""
+        a = self._arrays
+        lt = np.asarray(thicknesses, float)
+        extra = (1,) * lt.ndim
+        return a["cost_fixed"].reshape(-1, *extra) + a["cost_per_volume"].reshape(-1, *extra) * lt
+
+    # -- design point ----------------------------------------------------------
+    def design_thickness(self) -> np.ndarray:
+        """Sized thickness per candidate at the design point [m]: required, else the set thickness."""
+        if self.budget is not None and self.delta_t != 0:
+            return self.required_thickness()
+        return np.full(len(self.candidates), float(self.thickness))
+
+    def _solve_k_of_t(self) -> np.ndarray:
+        k = self._arrays["k_table"].copy()
+        curves = {i: self.k_curves[c.sized_material] for i, c in enumerate(self.candidates)
+                  if c.sized_material in self.k_curves}
+        if not curves or self.delta_t == 0:
+            return k
+        sizing = self.budget is not None
+        for _ in range(100):
+            k_old = k.copy()
+            lt = self._required(k) if sizing else np.full(k.shape, float(self.thickness))
+            for i, (tt, kk) in curves.items():
+                t_a, t_b = self._sized_face_temperatures(i, max(float(lt[i]), 1e-9), k[i])
+                with warnings.catch_warnings():
+                    warnings.simplefilter("ignore", ValidityWarning)
+                    k[i] = conduction.mean_conductivity(tt, kk, t_a, t_b)
+            if np.allclose(k, k_old, rtol=1e-12, atol=0):
+                return k
+        raise RuntimeError("k(T): effective conductivity did not converge in 100 iterations")
+
+    def _profile(self, i: int, sized_thickness: float, k_sized: float | None = None
+                 ) -> tuple[list[str], np.ndarray, np.ndarray]:
+        """Layer names, thicknesses [m] and conductivities [W/(m·K)] of candidate i."""
+        c = self.candidates[i]
+        names, ls, ks = [], [], []
+        for j, lay in enumerate(c.layers):
+            names.append(lay.material)
+            if j == c.sized_index:
+                ls.append(sized_thickness)
+                ks.append(self._k()[i] if k_sized is None else k_sized)
+            else:
+                ls.append(lay.thickness)
+                ks.append(float(self.materials.loc[lay.material, "conductivity"]))
+        return names, np.array(ls), np.array(ks)
+
+    def _sized_face_temperatures(self, i: int, sized_thickness: float, k_sized: float
+                                 ) -> tuple[float, float]:
+        _, ls, ks = self._profile(i, sized_thickness, k_sized)
+        t = conduction.wall_temperatures(ls, ks, self.t_inside, self.t_outside, self.r_si, self.r_se)
+        j = self.candidates[i].sized_index
+        return float(t[j]), float(t[j + 1])
+
+    def temperature_profile(self, name: str, sized_thickness: float | None = None) -> pd.DataFrame:
+        """Positions [m] and temperatures [K] through one candidate's wall, air to air."""
+        i = self._index(name)
+        lt = self.design_thickness()[i] if sized_thickness is None else sized_thickness
+        names, ls, ks = self._profile(i, max(float(lt), 1e-9))
+        t = conduction.wall_temperatures(ls, ks, self.t_inside, self.t_outside, self.r_si, self.r_se)
+        x = np.concatenate([[0.0], np.cumsum(ls)])
+        frame = pd.DataFrame({
+            "position": np.concatenate([[x[0]], x, [x[-1]]]),
+            "temperature": np.concatenate([[self.t_inside], t, [self.t_outside]]),
+            "where": ["inside air", *(f"face of {n}" for n in names[:1]),
+                      *(f"{a} | {b}" for a, b in zip(names[:-1], names[1:], strict=True)),
+                      f"face of {names[-1]}", "outside air"],
+        })
+        frame.attrs["units"] = {"position": "m", "temperature": "K"}
+        return frame
+
+    def _index(self, name: str) -> int:
+        try:
+            return self.names.index(name)
+        except ValueError:
+            raise ValueError(f"candidate: unknown {name!r}; valid: {self.names}") from None
+
+    def results(self) -> pd.DataFrame:
+        """One row per candidate at its design point, with units and sources.
+
+        Columns: sized thickness, total thickness [m]; effective k [W/(m·K)];
+        U-value [W/(m²·K)]; heat flux [W/m²]; heat flow [W]; mass and cost per
+        area; the face temperatures of the wall [K]; whether every layer's
+        face temperatures lie within its service range, and why not; whether
+        the budget and thickness limit are met; and the sources of k and ρ.
+        """
+        a = self._arrays
+        lt = self.design_thickness()
+        m = self.materials
+        rows = []
+        for i, c in enumerate(self.candidates):
+            names, ls, ks = self._profile(i, max(float(lt[i]), 1e-9))
+            t = conduction.wall_temperatures(ls, ks, self.t_inside, self.t_outside, self.r_si, self.r_se)
+            r_total = self.r_si + self.r_se + float(np.sum(ls / ks))
+            q = self.delta_t / r_total
+            problems = []
+            for j, mat in enumerate(names):
+                lo, hi = sorted((t[j], t[j + 1]))
+                t_min, t_max = m.loc[mat, "t_service_min"], m.loc[mat, "t_service_max"]
+                if hi > t_max:
+                    problems.append(f"{mat} face at {hi - 273.15:.0f} °C above its limit {t_max - 273.15:.0f} °C")
+                if lo < t_min:
+                    problems.append(f"{mat} face at {lo - 273.15:.0f} °C below its limit {t_min - 273.15:.0f} °C")
+            sized = c.sized_material
+            rows.append({
+                "candidate": c.name,
+                "sized_material": sized,
+                "family": m.loc[sized, "family"],
+                "sized_thickness": float(lt[i]),
+                "total_thickness": float(lt[i] + a["l_fixed"][i]),
+                "conductivity": float(self._k()[i]),
+                "density": float(a["density"][i]),
+                "u_value": 1.0 / r_total,
+                "heat_flux": q,
+                "heat_flow": q * self.area,
+                "mass_per_area": float(a["mass_fixed"][i] + a["density"][i] * lt[i]),
+                "cost_per_area": float(a["cost_fixed"][i] + a["cost_per_volume"][i] * lt[i]),
+                "t_surface_inside": float(t[0]),
+                "t_surface_outside": float(t[-1]),
+                "within_service_limits": not problems,
+                "service_problems": "; ".join(problems),
+                "meets_budget": True if self.budget is None else bool(abs(q) <= float(self.max_flux()) * (1 + 1e-9)),
+                "within_max_thickness": True if self.max_thickness is None else bool(lt[i] <= self.max_thickness),
+                "conductivity_source": m.loc[sized, "conductivity_source"],
+                "density_source": m.loc[sized, "density_source"],
+            })
+        frame = pd.DataFrame(rows).set_index("candidate")
+        frame.attrs["units"] = {
+            "sized_thickness": "m", "total_thickness": "m", "conductivity": "W/(m·K)",
+            "density": "kg/m³", "u_value": "W/(m²·K)", "heat_flux": "W/m²", "heat_flow": "W",
+            "mass_per_area": "kg/m²", "cost_per_area": f"{_currency(m)}/m²",
+            "t_surface_inside": "K", "t_surface_outside": "K",
+        }
+        frame.attrs["assumptions"] = WALL_ASSUMPTIONS
+        return frame
+
+
+def _cost_per_volume(row) -> float:
+    """Cost per m³ of a material row [currency/m³] (NaN where no cost is known)."""
+    return float(row["cost_per_volume"])
+
+
+def _currency(materials: pd.DataFrame) -> str:
+    cur = sorted(set(materials.get("currency", pd.Series(["EUR"])).dropna()))
+    return cur[0] if len(cur) == 1 else "/".join(cur)
+
+
+def candidates_from(items: Iterable[str | Candidate]) -> list[Candidate]:
+    """Coerce material ids and candidates into a list of :class:`Candidate`."""
+    return [Candidate.coerce(c) for c in items]
