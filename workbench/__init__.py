@@ -18,6 +18,25 @@ from workbench.conduction import (
     u_value,
     wall_temperatures,
 )
+from workbench.air_layers import (
+    AirLayer,
+    air_layer_resistance,
+    air_layer_resistance_detailed,
+    convection_onset_width,
+    gap_equivalent_conductivity,
+    ventilation_class,
+)
+from workbench.air_properties import air_properties
+from workbench.geometry import (
+    BoxConductance,
+    VacuumPanel,
+    box_conductance,
+    box_conductance_breakdown,
+    critical_insulation_radius,
+    cylinder_conductance,
+    layered_box_conductance,
+    vacuum_panel_effective_conductivity,
+)
 from workbench.materials import (
     FAMILIES,
     MaterialsFileError,
@@ -25,6 +44,17 @@ from workbench.materials import (
     load_conductivity_curves,
     load_materials,
     load_sources,
+)
+from workbench.surfaces import (
+    SURFACE_RESISTANCES,
+    SurfaceFilm,
+    combined_film_resistance,
+    conventional_surface_resistance,
+    flat_plate_convection_coefficient,
+    iso6946_convection_coefficient,
+    natural_convection_coefficient,
+    radiation_coefficient,
+    surface_film,
 )
 from workbench.units import UnitError, format_quantity, parse
 
@@ -43,6 +73,30 @@ __all__ = [
     "solve_wall",
     "u_value",
     "wall_temperatures",
+    "AirLayer",
+    "air_layer_resistance",
+    "air_layer_resistance_detailed",
+    "convection_onset_width",
+    "gap_equivalent_conductivity",
+    "ventilation_class",
+    "air_properties",
+    "BoxConductance",
+    "VacuumPanel",
+    "box_conductance",
+    "box_conductance_breakdown",
+    "critical_insulation_radius",
+    "cylinder_conductance",
+    "layered_box_conductance",
+    "vacuum_panel_effective_conductivity",
+    "SURFACE_RESISTANCES",
+    "SurfaceFilm",
+    "combined_film_resistance",
+    "conventional_surface_resistance",
+    "flat_plate_convection_coefficient",
+    "iso6946_convection_coefficient",
+    "natural_convection_coefficient",
+    "radiation_coefficient",
+    "surface_film",
     "FAMILIES",
     "MaterialsFileError",
     "check_materials_file",
