@@ -27,6 +27,8 @@ from workbench.air_layers import (
     ventilation_class,
 )
 from workbench.air_properties import air_properties
+from workbench.coolants import load_coolants
+from workbench.freight import billable_mass, landed_cost, outer_dimensions, round_up_mass
 from workbench.geometry import (
     BoxConductance,
     VacuumPanel,
@@ -37,6 +39,7 @@ from workbench.geometry import (
     layered_box_conductance,
     vacuum_panel_effective_conductivity,
 )
+from workbench.housing import HousingSolution, hot_spot, solve_housing
 from workbench.materials import (
     FAMILIES,
     MaterialsFileError,
@@ -45,6 +48,7 @@ from workbench.materials import (
     load_materials,
     load_sources,
 )
+from workbench.spreading import spreading_length, spreading_resistance, wall_biot_number
 from workbench.surfaces import (
     SURFACE_RESISTANCES,
     SurfaceFilm,
@@ -55,6 +59,14 @@ from workbench.surfaces import (
     natural_convection_coefficient,
     radiation_coefficient,
     surface_film,
+)
+from workbench.touch import load_touch_limits, touch_limit, touch_margin
+from workbench.transient import (
+    HoldSimulation,
+    coolant_mass_for_duration,
+    hold_time,
+    simulate_hold,
+    thickness_for_duration,
 )
 from workbench.units import UnitError, format_quantity, parse
 
@@ -97,6 +109,25 @@ __all__ = [
     "natural_convection_coefficient",
     "radiation_coefficient",
     "surface_film",
+    "HousingSolution",
+    "hot_spot",
+    "solve_housing",
+    "spreading_length",
+    "spreading_resistance",
+    "wall_biot_number",
+    "load_touch_limits",
+    "touch_limit",
+    "touch_margin",
+    "load_coolants",
+    "billable_mass",
+    "landed_cost",
+    "outer_dimensions",
+    "round_up_mass",
+    "HoldSimulation",
+    "coolant_mass_for_duration",
+    "hold_time",
+    "simulate_hold",
+    "thickness_for_duration",
     "FAMILIES",
     "MaterialsFileError",
     "check_materials_file",

@@ -204,7 +204,7 @@ def air_density(t: ArrayLike, pressure: ArrayLike = _STANDARD_PRESSURE) -> float
 
     References
     ----------
-    ``us-std-atm-1976`` (molar mass); ``codata`` (gas constant, via
+    ``us-std-atm-1976`` (molar mass); ``codata-2018`` (gas constant, via
     ``scipy.constants.R``).
 
     Examples

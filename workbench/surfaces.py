@@ -221,7 +221,7 @@ def blackbody_radiation_coefficient(t_mean: ArrayLike) -> float | np.ndarray:
     References
     ----------
     ``iso6946-2017``: ISO 6946:2017, Annex C (and Annex D for air layers),
-    from memory; ``codata``: CODATA 2018 via scipy.constants.
+    from memory; ``codata-2018``: CODATA 2018 via scipy.constants.
 
     Examples
     --------

@@ -1,0 +1,849 @@
+"""Insulated-shipper study: hold time, coolant sizing, box size and freight cost.
+
+The question is not "which foam has the lowest k" but "which build-up keeps
+this payload in range for the whole trip at the lowest landed cost per
+shipment". For every candidate wall and every insulation thickness of a
+sweep the study
+
+1. sizes the coolant for the target duration (closed form, with a safety
+   factor), iterating because the coolant layer makes the box bigger,
+2. builds the box: payload space + coolant layer + wall layers → outer
+   dimensions, actual mass, billable (dimensional) mass, landed cost,
+3. checks every design with the time-stepped two-node model
+   (:func:`workbench.transient.simulate_hold`, all designs in one call):
+   hold time, and why the hold ends (coolant spent, payload too warm or cold),
+4. picks per candidate the thickness with the lowest landed cost that meets
+   the hold time.
+
+Inputs are plain SI state (m, kg, K, s, J); results are DataFrames with units
+in ``attrs["units"]``, and the cautions travel with them. The study holds no
+widgets; :func:`cost_figure` (plotly, imported lazily) draws cost against
+thickness with each candidate's minimum marked.
+
+Caution: results are estimates for comparing designs. Packaging for medicines
+and other temperature-sensitive goods is qualified by testing under the
+applicable distribution rules.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Sequence
+from dataclasses import dataclass, field
+
+import numpy as np
+import pandas as pd
+
+from workbench import freight, transient
+from workbench._checks import finite, in_range, nonnegative, positive
+from workbench.air_layers import AirLayer
+from workbench.coolants import load_coolants
+from workbench.geometry import VacuumPanel, layered_box_conductance
+from workbench.studies.wall import Layer
+
+__all__ = [
+    "ShipperCandidate",
+    "ShipperStudy",
+    "ShipperResults",
+    "SHIPPER_ASSUMPTIONS",
+    "GENERAL_CAUTIONS",
+    "cost_figure",
+    "hold_figure",
+]
+
+#: Assumptions every shipper result rests on.
+SHIPPER_ASSUMPTIONS = (
+    "Box conductance: faces, edges and corners by conduction shape factors "
+    "(workbench.geometry.layered_box_conductance) around the inner space (payload + coolant layer), "
+    "with still-air surface resistances on both sides.",
+    "Air gaps enter as an equivalent conductivity d/R from the ISO 6946 air-layer method at the "
+    "design mean temperature, heat flow horizontal (the side walls dominate), 5 K across the gap.",
+    "Coolant sized by the closed-form energy balance (latent heat only) times the safety factor; "
+    "the coolant packs form a uniform layer around the payload space at the stated packing fraction.",
+    "Every design is checked by the time-stepped two-node model (payload node and coolant node, "
+    "coupling conductance = coefficient × payload surface area); the hold ends when the coolant is "
+    "spent or the payload leaves its range, whichever comes first.",
+    "Billable mass = max(actual, outer volume / divisor), rounded up to the carrier's increment.",
+    "Material and coolant costs are demo values; freight rate and divisor are user inputs.",
+)
+
+#: Cautions shown with every shipper result.
+GENERAL_CAUTIONS = (
+    "Estimate only: a shipper for medicines or other temperature-sensitive goods is qualified by "
+    "testing (thermal chamber and field trials) under the applicable distribution rules before use.",
+)
+
+
+@dataclass(frozen=True)
+class ShipperCandidate:
+    """A named wall build-up, inside to outside, with exactly one sized layer.
+
+    Layers are :class:`workbench.studies.wall.Layer` (material id; thickness
+    ``None`` for the sized layer), :class:`workbench.air_layers.AirLayer`
+    or :class:`workbench.geometry.VacuumPanel` (fixed thicknesses).
+    """
+
+    name: str
+    layers: tuple
+
+    def __post_init__(self):
+        if not self.layers:
+            raise ValueError(f"candidate {self.name!r}: layers: give at least one layer")
+        for lay in self.layers:
+            if not isinstance(lay, Layer | AirLayer | VacuumPanel):
+                raise ValueError(
+                    f"candidate {self.name!r}: layers: expected Layer, AirLayer or VacuumPanel, got {lay!r}"
+                )
+        sized = [
+            i
+            for i, lay in enumerate(self.layers)
+            if isinstance(lay, Layer) and lay.thickness is None
+        ]
+        if len(sized) != 1:
+            raise ValueError(
+                f"candidate {self.name!r}: needs exactly one Layer without a thickness (the layer to size), "
+                f"found {len(sized)}"
+            )
+
+    @property
+    def sized_index(self) -> int:
+        return next(
+            i
+            for i, lay in enumerate(self.layers)
+            if isinstance(lay, Layer) and lay.thickness is None
+        )
+
+
+@dataclass(frozen=True)
+class ShipperResults:
+    """Frames of one study run, with the cautions that go with them.
+
+    Attributes
+    ----------
+    sweep : DataFrame
+        One row per candidate and sized thickness.
+    optimum : DataFrame
+        One row per candidate: the cheapest thickness that meets the hold time.
+    cautions : tuple of str
+        Warnings to show beside the numbers.
+    assumptions : tuple of str
+        What the numbers rest on.
+    """
+
+    sweep: pd.DataFrame
+    optimum: pd.DataFrame
+    cautions: tuple[str, ...]
+    assumptions: tuple[str, ...] = SHIPPER_ASSUMPTIONS
+
+
+_SWEEP_UNITS = {
+    "thickness": "m",
+    "wall_thickness": "m",
+    "conductance": "W/K",
+    "coolant_mass": "kg",
+    "coolant_layer": "m",
+    "outer_length": "m",
+    "outer_width": "m",
+    "outer_height": "m",
+    "outer_volume": "m³",
+    "wall_mass": "kg",
+    "actual_mass": "kg",
+    "dimensional_mass": "kg",
+    "billable_mass": "kg",
+    "packaging_cost": "currency",
+    "coolant_cost": "currency",
+    "freight_cost": "currency",
+    "landed_cost": "currency",
+    "hold_time_closed_form": "s",
+    "hold_time_simulated": "s",
+    "time_coolant_spent": "s",
+    "time_out_of_range": "s",
+    "min_payload_temperature": "K",
+    "max_payload_temperature": "K",
+}
+
+
+@dataclass
+class ShipperStudy:
+    """Compare insulated-shipper build-ups on hold time and landed cost.
+
+    Parameters
+    ----------
+    candidates : sequence of ShipperCandidate
+        Wall build-ups to compare.
+    materials : DataFrame
+        :func:`workbench.materials.load_materials`.
+    coolant : str
+        Coolant id in :func:`workbench.coolants.load_coolants`.
+    payload_length, payload_width, payload_height : float
+        Payload space. [m]
+    payload_mass : float
+        Payload mass (with its inner packaging). [kg]
+    payload_specific_heat : float
+        Mean specific heat of the payload. [J/(kg·K)]
+    t_payload_min, t_payload_max : float or None
+        Allowed payload range; ``None`` for no limit on that side. [K]
+    t_payload_start : float
+        Payload temperature when packed. [K]
+    t_ambient : float or (array, array)
+        Ambient temperature or step profile ``(times_s, temperatures_K)``. [K]
+    duration : float
+        Required hold time. [s]
+    thicknesses : array
+        Sweep of the sized layer's thickness. [m]
+    safety_factor : float
+        Multiplier on the sized coolant mass, >= 1. [-]
+    coolant_packing_fraction : float
+        Share of the coolant space filled by coolant, (0, 1]. [-]
+    t_coolant_start : float or None
+        Coolant temperature when packed; ``None``: conditioned at its phase
+        change (solid). [K]
+    r_si, r_se : float
+        Surface resistances inside and outside (still air by default). [m²·K/W]
+    coupling_coefficient : float
+        Payload-to-coolant heat-transfer coefficient over the payload surface. [W/(m²·K)]
+    coolant_wall_fraction : float
+        Share of the box conductance that reaches the coolant directly, 0–1;
+        default 0.8 (packs cover the faces, not the edges and corners: a
+        common-practice guess). [-]
+    divisor : float
+        Dimensional divisor of the freight contract. [m³/kg]
+    mass_increment : float
+        The carrier's rounding step for the billable mass. [kg]
+    rate_per_kg : float
+        Freight rate per billable kg. [currency/kg]
+    fixed_fee : float
+        Fixed freight charge per shipment. [currency]
+    time_step : float
+        Step of the simulation. [s]
+    coolants : DataFrame, optional
+        Coolants table (default: :func:`workbench.coolants.load_coolants`).
+    """
+
+    candidates: Sequence[ShipperCandidate]
+    materials: pd.DataFrame
+    coolant: str = "pcm_plus5"
+    payload_length: float = 0.30
+    payload_width: float = 0.20
+    payload_height: float = 0.15
+    payload_mass: float = 3.0
+    payload_specific_heat: float = 3500.0
+    t_payload_min: float | None = 275.15
+    t_payload_max: float | None = 281.15
+    t_payload_start: float = 278.15
+    t_ambient: object = 298.15
+    duration: float = 48 * 3600.0
+    thicknesses: np.ndarray = field(
+        default_factory=lambda: np.round(np.arange(0.01, 0.1001, 0.005), 4)
+    )
+    safety_factor: float = 1.2
+    coolant_packing_fraction: float = 0.8
+    t_coolant_start: float | None = None
+    r_si: float = 0.13
+    r_se: float = 0.13
+    coupling_coefficient: float = 5.0
+    coolant_wall_fraction: float = 0.8
+    divisor: float = 0.005
+    mass_increment: float = 0.5
+    rate_per_kg: float = 1.5
+    fixed_fee: float = 5.0
+    time_step: float = 300.0
+    coolants: pd.DataFrame | None = None
+
+    def __post_init__(self):
+        self.candidates = list(self.candidates)
+        if not self.candidates:
+            raise ValueError("candidates: give at least one ShipperCandidate")
+        for c in self.candidates:
+            if not isinstance(c, ShipperCandidate):
+                raise ValueError(f"candidates: expected ShipperCandidate, got {c!r}")
+        names = [c.name for c in self.candidates]
+        dup = sorted({n for n in names if names.count(n) > 1})
+        if dup:
+            raise ValueError(f"candidates: duplicate names {dup}")
+        used = {lay.material for c in self.candidates for lay in c.layers if isinstance(lay, Layer)}
+        unknown = sorted(used - set(self.materials.index))
+        if unknown:
+            raise ValueError(
+                f"candidates: unknown material ids {unknown}; see load_materials().index"
+            )
+        if self.coolants is None:
+            self.coolants = load_coolants()
+        if self.coolant not in self.coolants.index:
+            raise ValueError(
+                f"coolant: unknown id {self.coolant!r}; valid: {list(self.coolants.index)}"
+            )
+        for name in (
+            "payload_length",
+            "payload_width",
+            "payload_height",
+            "payload_mass",
+            "payload_specific_heat",
+            "duration",
+            "divisor",
+            "mass_increment",
+            "time_step",
+            "coupling_coefficient",
+            "t_payload_start",
+        ):
+            positive(name, getattr(self, name), _INPUT_UNITS[name])
+        nonnegative("r_si", self.r_si, "m²·K/W")
+        nonnegative("r_se", self.r_se, "m²·K/W")
+        nonnegative("rate_per_kg", self.rate_per_kg, "currency/kg")
+        nonnegative("fixed_fee", self.fixed_fee, "currency")
+        in_range("coolant_wall_fraction", self.coolant_wall_fraction, 0.0, 1.0, "-")
+        in_range("coolant_packing_fraction", self.coolant_packing_fraction, 1e-3, 1.0, "-")
+        if finite("safety_factor", self.safety_factor, "-") < 1.0:
+            raise ValueError("safety_factor: must be >= 1 [-]")
+        lo = (
+            -np.inf
+            if self.t_payload_min is None
+            else float(positive("t_payload_min", self.t_payload_min, "K"))
+        )
+        hi = (
+            np.inf
+            if self.t_payload_max is None
+            else float(positive("t_payload_max", self.t_payload_max, "K"))
+        )
+        if lo >= hi:
+            raise ValueError(
+                "t_payload_min, t_payload_max: the payload range is inverted (min must be below max) [K]"
+            )
+        if not lo <= self.t_payload_start <= hi:
+            raise ValueError("t_payload_start: must lie within the payload range [K]")
+        self.thicknesses = np.atleast_1d(positive("thicknesses", self.thicknesses, "m"))
+        transient.ambient_profile(self.t_ambient)
+
+    # -- properties -----------------------------------------------------------
+    @property
+    def names(self) -> list[str]:
+        return [c.name for c in self.candidates]
+
+    @property
+    def coolant_row(self) -> pd.Series:
+        return self.coolants.loc[self.coolant]
+
+    @property
+    def payload_heat_capacity(self) -> float:
+        """Payload heat capacity. [J/K]"""
+        return float(self.payload_mass * self.payload_specific_heat)
+
+    @property
+    def coupling_conductance(self) -> float:
+        """Payload-to-coolant conductance: coefficient × payload surface area. [W/K]"""
+        a, b, c = self.payload_length, self.payload_width, self.payload_height
+        return float(self.coupling_coefficient * 2.0 * (a * b + a * c + b * c))
+
+    def _design_t_mean(self) -> float:
+        times, temps = transient.ambient_profile(self.t_ambient)
+        return 0.5 * (float(np.mean(temps)) + float(self.coolant_row["t_phase_change"]))
+
+    # -- layers ---------------------------------------------------------------
+    def _layers(self, cand: ShipperCandidate, sized: np.ndarray):
+        """Thicknesses, conductivities, densities, costs per m³: arrays (n_thk, n_layers)."""
+        m = self.materials
+        n = sized.size
+        t_mean = self._design_t_mean()
+        cols = {"t": [], "k": [], "rho": [], "cost": []}
+        for j, lay in enumerate(cand.layers):
+            if isinstance(lay, Layer):
+                row = m.loc[lay.material]
+                t = sized if j == cand.sized_index else np.full(n, lay.thickness)
+                k, rho, cost = row["conductivity"], row["density"], _cost_per_volume(row)
+            elif isinstance(lay, AirLayer):
+                t = np.full(n, lay.thickness)
+                r = float(lay.resistance(t_mean + 2.5, t_mean - 2.5))
+                k, rho, cost = (
+                    lay.thickness / r,
+                    float(m.loc["air", "density"]) if "air" in m.index else 1.2,
+                    0.0,
+                )
+            else:  # VacuumPanel: core density and cost of the table's fumed-silica panel
+                t = np.full(n, lay.thickness)
+                k = lay.conductivity
+                row = m.loc["vip_centre"] if "vip_centre" in m.index else None
+                rho = float(row["density"]) if row is not None else 190.0
+                cost = _cost_per_volume(row) if row is not None else 0.0
+            cols["t"].append(np.asarray(t, float))
+            cols["k"].append(np.full(n, float(k)))
+            cols["rho"].append(np.full(n, float(rho)))
+            cols["cost"].append(np.full(n, float(cost)))
+        return {key: np.stack(v, axis=-1) for key, v in cols.items()}
+
+    def _box(self, lay: dict, coolant_mass: np.ndarray) -> dict:
+        """Inner dims, conductance and outer box for coolant masses (n_thk,)."""
+        row = self.coolant_row
+        vol = coolant_mass / float(row["density"]) / self.coolant_packing_fraction
+        tc = np.asarray(
+            freight.coolant_layer_thickness(
+                self.payload_length, self.payload_width, self.payload_height, vol
+            ),
+            float,
+        )
+        a = self.payload_length + 2 * tc
+        b = self.payload_width + 2 * tc
+        c = self.payload_height + 2 * tc
+        ua = layered_box_conductance(a, b, c, lay["t"], lay["k"], self.r_si, self.r_se).total
+        return {"coolant_layer": tc, "a": a, "b": b, "c": c, "conductance": np.asarray(ua, float)}
+
+    def _size(self, lay: dict) -> tuple[np.ndarray, dict]:
+        """Coolant mass for the target with the box grown by its own coolant (fixed point)."""
+        row = self.coolant_row
+        n = lay["t"].shape[0]
+        mass = np.full(n, 0.5)
+        for _ in range(30):
+            box = self._box(lay, mass)
+            new = np.asarray(
+                transient.coolant_mass_for_duration(
+                    self.duration,
+                    box["conductance"],
+                    self.t_ambient,
+                    float(row["latent_heat"]),
+                    float(row["t_phase_change"]),
+                    self.payload_heat_capacity,
+                    self.t_payload_start,
+                    self.safety_factor,
+                ),
+                float,
+            )
+            if np.allclose(new, mass, rtol=1e-6, atol=1e-9):
+                mass = new
+                break
+            mass = new
+        return mass, self._box(lay, mass)
+
+    # -- the sweep ------------------------------------------------------------
+    def sweep(self) -> pd.DataFrame:
+        """Every candidate × thickness: coolant, box, masses, costs and simulated hold.
+
+        Returns
+        -------
+        DataFrame
+            One row per candidate and sized thickness; units in ``attrs["units"]``.
+        """
+        row = self.coolant_row
+        frames = []
+        designs = []
+        for cand in self.candidates:
+            lay = self._layers(cand, self.thicknesses)
+            mass, box = self._size(lay)
+            wall_t = lay["t"].sum(axis=-1)
+            outer = freight.outer_dimensions(
+                self.payload_length,
+                self.payload_width,
+                self.payload_height,
+                box["coolant_layer"],
+                wall_t,
+            )
+            wall_m = np.asarray(
+                freight.wall_mass(box["a"], box["b"], box["c"], lay["t"], lay["rho"]), float
+            )
+            vols = _layer_volumes(box["a"], box["b"], box["c"], lay["t"])
+            pack_cost = (vols * lay["cost"]).sum(axis=-1)
+            actual = wall_m + mass + self.payload_mass
+            lo_, wo_, ho_ = outer[..., 0], outer[..., 1], outer[..., 2]
+            billable = np.asarray(freight.billable_mass(lo_, wo_, ho_, actual, self.divisor), float)
+            billed = np.asarray(freight.round_up_mass(billable, self.mass_increment), float)
+            coolant_cost = mass * float(row["cost"])
+            landed = np.asarray(
+                freight.landed_cost(
+                    pack_cost, coolant_cost, billed, self.rate_per_kg, self.fixed_fee
+                ),
+                float,
+            )
+            hold_cf = np.asarray(
+                transient.hold_time(
+                    box["conductance"],
+                    self.t_ambient,
+                    mass,
+                    float(row["latent_heat"]),
+                    float(row["t_phase_change"]),
+                    self.payload_heat_capacity,
+                    self.t_payload_start,
+                ),
+                float,
+            )
+            frames.append(
+                pd.DataFrame(
+                    {
+                        "candidate": cand.name,
+                        "thickness": self.thicknesses,
+                        "wall_thickness": wall_t,
+                        "conductance": box["conductance"],
+                        "coolant_mass": mass,
+                        "coolant_layer": box["coolant_layer"],
+                        "outer_length": lo_,
+                        "outer_width": wo_,
+                        "outer_height": ho_,
+                        "outer_volume": lo_ * wo_ * ho_,
+                        "wall_mass": wall_m,
+                        "actual_mass": actual,
+                        "dimensional_mass": lo_ * wo_ * ho_ / self.divisor,
+                        "billable_mass": billed,
+                        "packaging_cost": pack_cost,
+                        "coolant_cost": coolant_cost,
+                        "freight_cost": self.rate_per_kg * billed + self.fixed_fee,
+                        "landed_cost": landed,
+                        "hold_time_closed_form": hold_cf,
+                    }
+                )
+            )
+            designs.append((box["conductance"], mass))
+        frame = pd.concat(frames, ignore_index=True)
+        sim = self.simulate(
+            np.concatenate([d[0] for d in designs]), np.concatenate([d[1] for d in designs])
+        )
+        frame["hold_time_simulated"] = sim.hold_time
+        frame["time_coolant_spent"] = sim.time_coolant_spent
+        frame["time_out_of_range"] = sim.time_out_of_range
+        frame["end_reason"] = sim.reason
+        frame["min_payload_temperature"] = sim.payload_temperature.min(axis=-1)
+        frame["max_payload_temperature"] = sim.payload_temperature.max(axis=-1)
+        frame["meets_target"] = sim.hold_time >= self.duration * (1 - 1e-9)
+        frame.attrs["units"] = dict(
+            _SWEEP_UNITS,
+            **{
+                k: f"{row['currency']}"
+                for k in ("packaging_cost", "coolant_cost", "freight_cost", "landed_cost")
+            },
+        )
+        frame.attrs["assumptions"] = SHIPPER_ASSUMPTIONS
+        return frame
+
+    def simulate(
+        self, conductance, coolant_mass, duration: float | None = None
+    ) -> transient.HoldSimulation:
+        """Time-stepped check of designs (arrays of conductance [W/K] and coolant mass [kg])."""
+        row = self.coolant_row
+        return transient.simulate_hold(
+            conductance,
+            self.t_ambient,
+            coolant_mass,
+            float(row["latent_heat"]),
+            float(row["t_phase_change"]),
+            self.duration if duration is None else duration,
+            self.time_step,
+            specific_heat_solid=float(row["specific_heat_solid"]),
+            specific_heat_liquid=float(row["specific_heat_liquid"]),
+            payload_heat_capacity=self.payload_heat_capacity,
+            coupling_conductance=self.coupling_conductance,
+            coolant_wall_fraction=self.coolant_wall_fraction,
+            t_coolant_start=self.t_coolant_start,
+            t_payload_start=self.t_payload_start,
+            t_payload_min=self.t_payload_min,
+            t_payload_max=self.t_payload_max,
+            record_every=max(1, int(round(1800.0 / self.time_step))),
+        )
+
+    def hold_curve(self, coolant_mass: float) -> pd.DataFrame:
+        """Hold time against thickness for each candidate with a fixed coolant mass.
+
+        Returns closed-form and simulated hold times [s] (the simulation runs
+        for twice the target duration, so longer holds show up to that).
+        """
+        mass = float(positive("coolant_mass", coolant_mass, "kg"))
+        row = self.coolant_row
+        frames = []
+        for cand in self.candidates:
+            lay = self._layers(cand, self.thicknesses)
+            box = self._box(lay, np.full(self.thicknesses.size, mass))
+            hold = transient.hold_time(
+                box["conductance"],
+                self.t_ambient,
+                mass,
+                float(row["latent_heat"]),
+                float(row["t_phase_change"]),
+                self.payload_heat_capacity,
+                self.t_payload_start,
+            )
+            frames.append(
+                pd.DataFrame(
+                    {
+                        "candidate": cand.name,
+                        "thickness": self.thicknesses,
+                        "conductance": box["conductance"],
+                        "hold_time_closed_form": hold,
+                    }
+                )
+            )
+        frame = pd.concat(frames, ignore_index=True)
+        sim = self.simulate(frame["conductance"].to_numpy(), mass, duration=2 * self.duration)
+        frame["hold_time_simulated"] = sim.hold_time
+        frame["end_reason"] = sim.reason
+        frame.attrs["units"] = {
+            "thickness": "m",
+            "conductance": "W/K",
+            "hold_time_closed_form": "s",
+            "hold_time_simulated": "s",
+        }
+        return frame
+
+    def thickness_for_target(self, coolant_mass: float) -> pd.Series:
+        """Sized-layer thickness [m] per candidate that holds for the target with a fixed coolant mass.
+
+        NaN where the largest thickness of the sweep is not enough.
+        """
+        mass = float(positive("coolant_mass", coolant_mass, "kg"))
+        row = self.coolant_row
+        out = {}
+        for cand in self.candidates:
+
+            def ua_of(d, cand=cand):
+                d = np.asarray(d, float)
+                lay = self._layers(cand, d.ravel())
+                return self._box(lay, np.full(d.size, mass))["conductance"].reshape(d.shape)
+
+            out[cand.name] = float(
+                transient.thickness_for_duration(
+                    self.duration,
+                    ua_of,
+                    self.t_ambient,
+                    mass,
+                    float(row["latent_heat"]),
+                    float(row["t_phase_change"]),
+                    thickness_max=float(self.thicknesses.max()),
+                    thickness_min=float(self.thicknesses.min()) / 10,
+                    payload_heat_capacity=self.payload_heat_capacity,
+                    t_payload_start=self.t_payload_start,
+                    on_impossible="nan",
+                )
+            )
+        s = pd.Series(out, name="thickness")
+        s.attrs["units"] = {"thickness": "m"}
+        return s
+
+    def cautions(self, sweep: pd.DataFrame | None = None) -> tuple[str, ...]:
+        """Warnings that go with this study's results (strings)."""
+        row = self.coolant_row
+        out = list(GENERAL_CAUTIONS)
+        tpc = float(row["t_phase_change"])
+        lo = self.t_payload_min
+        if (
+            row["phase_change"] == "melting"
+            and tpc <= 273.15 + 0.5
+            and lo is not None
+            and lo > 273.15
+        ):
+            out.append(
+                f"Frozen water-based packs ({row['name']}) with a payload that must stay above "
+                f"{lo - 273.15:.0f} °C: risk of freezing the payload. Common practice: condition the packs "
+                "(let them warm until they start to melt) and keep them out of direct contact with the payload."
+            )
+        if self.t_coolant_start is not None and self.t_coolant_start < tpc and lo is not None:
+            out.append(
+                "Coolant packed colder than its phase change: check the payload's low limit in the simulation."
+            )
+        if row["phase_change"] == "sublimation":
+            out.append(
+                "Dry ice sublimes to CO2 gas: never use a gas-tight box (it can burst), ventilate vehicles "
+                "and rooms (asphyxiation risk), wear insulated gloves; for air transport it is dangerous "
+                "goods (UN 1845, Class 9): mark the net mass of dry ice and follow the carrier's and IATA rules."
+            )
+        if "demo" in str(row["latent_heat_source"]):
+            out.append(
+                f"{row['name']}: generic demo property values; use the product's measured data."
+            )
+        out.append(row["cautions"])
+        if sweep is not None:
+            cold = sweep["end_reason"] == "payload too cold"
+            if cold.any():
+                out.append(
+                    f"{int(cold.sum())} design(s) chill the payload below its range in the simulation "
+                    "(see end_reason): condition the coolant or separate it from the payload."
+                )
+            if not sweep["meets_target"].any():
+                out.append(
+                    "No design in the sweep meets the hold time: widen the thickness range or change the coolant."
+                )
+        out.append("Material, coolant and freight costs are demo or user values, not quotes.")
+        return tuple(dict.fromkeys(out))
+
+    def results(self) -> ShipperResults:
+        """Sweep, optimum per candidate and cautions."""
+        sweep = self.sweep()
+        rows = []
+        for name in self.names:
+            s = sweep[(sweep["candidate"] == name) & sweep["meets_target"]]
+            if s.empty:
+                empty = {col: np.nan for col in sweep.columns}
+                empty.update(
+                    {"candidate": name, "meets_target": False, "end_reason": "no thickness holds"}
+                )
+                rows.append(empty)
+                continue
+            best = s.loc[s["landed_cost"].idxmin()]
+            rows.append(best.to_dict())
+        opt = pd.DataFrame(rows).set_index("candidate")
+        opt["rank"] = opt["landed_cost"].rank(method="min")
+        opt.attrs["units"] = sweep.attrs["units"]
+        opt.attrs["assumptions"] = SHIPPER_ASSUMPTIONS
+        return ShipperResults(sweep=sweep, optimum=opt, cautions=self.cautions(sweep))
+
+    def design_run(self, name: str, thickness: float) -> pd.DataFrame:
+        """Time series of one design (sized coolant): payload, coolant, ambient [K], fraction left."""
+        if name not in self.names:
+            raise ValueError(f"candidate: unknown {name!r}; valid: {self.names}")
+        cand = self.candidates[self.names.index(name)]
+        th = np.atleast_1d(positive("thickness", thickness, "m"))
+        lay = self._layers(cand, th)
+        mass, box = self._size(lay)
+        sim = self.simulate(box["conductance"], mass, duration=1.5 * self.duration)
+        frame = pd.DataFrame(
+            {
+                "time": sim.times,
+                "ambient": sim.ambient,
+                "payload_temperature": sim.payload_temperature[0],
+                "coolant_temperature": sim.coolant_temperature[0],
+                "coolant_fraction_left": sim.coolant_fraction_left[0],
+            }
+        )
+        frame.attrs["units"] = {
+            "time": "s",
+            "ambient": "K",
+            "payload_temperature": "K",
+            "coolant_temperature": "K",
+            "coolant_fraction_left": "-",
+        }
+        frame.attrs["hold_time"] = float(sim.hold_time[0])
+        frame.attrs["end_reason"] = str(sim.reason[0])
+        frame.attrs["coolant_mass"] = float(mass[0])
+        return frame
+
+
+_INPUT_UNITS = {
+    "payload_length": "m",
+    "payload_width": "m",
+    "payload_height": "m",
+    "payload_mass": "kg",
+    "payload_specific_heat": "J/(kg·K)",
+    "duration": "s",
+    "divisor": "m³/kg",
+    "mass_increment": "kg",
+    "time_step": "s",
+    "coupling_coefficient": "W/(m²·K)",
+    "t_payload_start": "K",
+}
+
+
+def _cost_per_volume(row) -> float:
+    value = row.get("cost_per_volume", np.nan)
+    if pd.notna(value):
+        return float(value)
+    if row.get("cost_basis") == "per_kg" and pd.notna(row.get("cost")):
+        return float(row["cost"]) * float(row["density"])
+    if row.get("cost_basis") == "per_m3" and pd.notna(row.get("cost")):
+        return float(row["cost"])
+    return 0.0
+
+
+def _layer_volumes(a, b, c, t):
+    """Shell volume of each nested layer (n, n_layers). [m³]"""
+    inner = np.cumsum(t, axis=-1) - t
+    a_, b_, c_ = (np.asarray(x, float)[..., None] for x in (a, b, c))
+    outer = inner + t
+    return (a_ + 2 * outer) * (b_ + 2 * outer) * (c_ + 2 * outer) - (a_ + 2 * inner) * (
+        b_ + 2 * inner
+    ) * (c_ + 2 * inner)
+
+
+# ---------------------------------------------------------------------------
+# Charts (plotly imported lazily; the core never imports it)
+# ---------------------------------------------------------------------------
+def cost_figure(results: ShipperResults, currency: str = "EUR", highlight: str | None = None):
+    """Landed cost against sized thickness per candidate, each minimum marked.
+
+    Designs that miss the hold time are drawn hollow. Returns a plotly ``go.Figure``.
+    """
+    import plotly.graph_objects as go
+
+    sw, opt = results.sweep, results.optimum
+    fig = go.Figure()
+    for name, grp in sw.groupby("candidate", sort=False):
+        width = 4 if name == highlight else 2
+        fig.add_trace(
+            go.Scatter(
+                x=grp["thickness"] * 1000,
+                y=grp["landed_cost"],
+                mode="lines+markers",
+                name=name,
+                line={"width": width},
+                marker={
+                    "symbol": np.where(grp["meets_target"], "circle", "circle-open").tolist(),
+                    "size": 7,
+                },
+                customdata=np.stack(
+                    [
+                        grp["coolant_mass"],
+                        grp["billable_mass"],
+                        grp["hold_time_simulated"] / 3600,
+                        grp["end_reason"],
+                    ],
+                    axis=-1,
+                ),
+                hovertemplate=(
+                    "thickness %{x:.0f} mm<br>landed cost %{y:.2f} "
+                    + currency
+                    + "<br>coolant %{customdata[0]:.2f} kg<br>billable %{customdata[1]:.1f} kg"
+                    + "<br>hold %{customdata[2]:.1f} h (%{customdata[3]})<extra>%{fullData.name}</extra>"
+                ),
+            )
+        )
+    ok = opt[opt["meets_target"].astype(bool)]
+    fig.add_trace(
+        go.Scatter(
+            x=ok["thickness"] * 1000,
+            y=ok["landed_cost"],
+            mode="markers",
+            name="cheapest that holds",
+            marker={"symbol": "star", "size": 16, "color": "black"},
+            hovertemplate="%{text}: %{x:.0f} mm, %{y:.2f} " + currency + "<extra></extra>",
+            text=list(ok.index),
+        )
+    )
+    fig.update_layout(
+        xaxis_title="sized insulation thickness [mm]",
+        yaxis_title=f"landed cost per shipment [{currency}]",
+        legend_title="wall build-up",
+        template="plotly_white",
+    )
+    return fig
+
+
+def hold_figure(run: pd.DataFrame, t_payload_min=None, t_payload_max=None, title: str = ""):
+    """Payload, coolant and ambient temperature [°C] and coolant left against time [h]."""
+    import plotly.graph_objects as go
+    from plotly.subplots import make_subplots
+
+    hours = run["time"] / 3600
+    fig = make_subplots(specs=[[{"secondary_y": True}]])
+    for col, label, dash in (
+        ("ambient", "ambient (demo profile)", "dot"),
+        ("payload_temperature", "payload", "solid"),
+        ("coolant_temperature", "coolant", "dash"),
+    ):
+        fig.add_trace(
+            go.Scatter(
+                x=hours,
+                y=run[col] - 273.15,
+                name=label,
+                line={"dash": dash},
+                hovertemplate="%{x:.1f} h: %{y:.1f} °C",
+            ),
+            secondary_y=False,
+        )
+    fig.add_trace(
+        go.Scatter(
+            x=hours,
+            y=run["coolant_fraction_left"] * 100,
+            name="coolant left",
+            line={"color": "grey"},
+            hovertemplate="%{x:.1f} h: %{y:.0f} %",
+        ),
+        secondary_y=True,
+    )
+    for lim in (t_payload_min, t_payload_max):
+        if lim is not None:
+            fig.add_hline(y=lim - 273.15, line={"color": "firebrick", "width": 1, "dash": "dash"})
+    fig.update_layout(title=title, template="plotly_white", xaxis_title="time [h]")
+    fig.update_yaxes(title_text="temperature [°C]", secondary_y=False)
+    fig.update_yaxes(title_text="coolant left [%]", range=[0, 105], secondary_y=True)
+    return fig

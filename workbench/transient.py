@@ -1,0 +1,1068 @@
+"""Hold time of an insulated shipper: coolant, payload and box wall over time.
+
+Two models, one energy balance:
+
+- :func:`hold_time` — the closed-form cases: one lumped inside node (coolant
+  at its phase-change temperature plus the payload's heat capacity) behind a
+  box conductance, ambient constant or a step profile. Solved exactly segment
+  by segment (linear while the coolant changes phase, exponential otherwise).
+- :func:`simulate_hold` — the general case, time-stepped and vectorised over
+  design variants (numpy over variants, a loop over time steps): a coolant
+  node (sensible solid → latent → sensible liquid, by its specific enthalpy)
+  and a payload node (payload + inside air + inner packaging) joined by a
+  coupling conductance, with the box conductance split between them. Each
+  step is the exact solution of the linear two-node system with the
+  coolant's capacity of its current state (infinite while it changes phase),
+  so the step is stable for any step length and conserves energy to
+  round-off.
+- Sizing: :func:`coolant_mass_for_duration`, :func:`max_conductance_for_duration`,
+  :func:`thickness_for_duration` (vectorised monotone bisection).
+
+Ambient input ``t_ambient``: a temperature [K] or a step profile
+``(times_s, temperatures_K)``: ``times_s`` starts at 0 and increases strictly;
+``temperatures_K[i]`` holds from ``times_s[i]`` to ``times_s[i+1]`` and the
+last value holds for ever.
+
+Caution: a hold time from these models is a design estimate. Packaging for
+medicines and other temperature-sensitive goods is qualified by testing
+(thermal chamber and field trials) under the applicable distribution rules;
+frozen water-based packs can freeze a 2–8 °C payload; dry ice gives off CO2
+gas (never a gas-tight box; ventilate; dangerous goods for air transport).
+"""
+
+from __future__ import annotations
+
+from collections.abc import Callable, Sequence
+from dataclasses import dataclass
+from types import MappingProxyType
+
+import numpy as np
+
+from workbench._checks import (
+    broadcast,
+    finite,
+    in_range,
+    nonnegative,
+    positive,
+    scalar_or_array,
+)
+
+__all__ = [
+    "REASONS",
+    "PAYLOAD_RANGES",
+    "ambient_profile",
+    "mean_ambient",
+    "hold_time",
+    "HoldSimulation",
+    "simulate_hold",
+    "coolant_mass_for_duration",
+    "max_conductance_for_duration",
+    "thickness_for_duration",
+]
+
+#: A float, a sequence of floats or an array (broadcasting).
+ArrayLike = float | Sequence[float] | np.ndarray
+#: A constant temperature [K] or a step profile (times_s [s], temperatures_K [K]).
+AmbientLike = float | tuple[Sequence[float] | np.ndarray, Sequence[float] | np.ndarray]
+
+#: Usual payload temperature ranges (min, max) [K]; ``None``: no limit on that
+#: side. Common-practice labels of the cold chain; the product's own labelling
+#: and the applicable distribution rules decide.
+PAYLOAD_RANGES = MappingProxyType(
+    {
+        "2-8 °C (refrigerated)": (275.15, 281.15),
+        "15-25 °C (controlled room temperature)": (288.15, 298.15),
+        "frozen, -15 °C or colder": (None, 258.15),
+        "deep frozen, -60 °C or colder": (None, 213.15),
+    }
+)
+
+#: Why a simulated hold ended.
+REASONS: tuple[str, ...] = (
+    "coolant spent",
+    "payload too warm",
+    "payload too cold",
+    "held for the whole run",
+)
+
+
+# ---------------------------------------------------------------------------
+# Ambient profiles
+# ---------------------------------------------------------------------------
+def ambient_profile(t_ambient: AmbientLike) -> tuple[np.ndarray, np.ndarray]:
+    """Validate an ambient temperature or step profile.
+
+    Parameters
+    ----------
+    t_ambient : float or (array, array)
+        A constant temperature [K], or ``(times_s, temperatures_K)``: times
+        [s] from 0, strictly increasing, and the temperature [K] holding from
+        each time to the next (the last one for ever).
+
+    Returns
+    -------
+    (ndarray, ndarray)
+        Times [s] and temperatures [K], equal lengths, at least one point.
+
+    Notes
+    -----
+    Step (zero-order hold) profile: :math:`T_a(t) = T_i` for
+    :math:`t_i \\le t < t_{i+1}`.
+
+    References
+    ----------
+    Definition of this module (``demo`` profiles in the notebooks).
+
+    Examples
+    --------
+    >>> ambient_profile(300.0)
+    (array([0.]), array([300.]))
+    >>> ambient_profile(([0, 3600], [303.15, 293.15]))[1]
+    array([303.15, 293.15])
+    """
+    if isinstance(t_ambient, tuple | list) and len(t_ambient) == 2 and np.ndim(t_ambient[0]) == 1:
+        times = finite("t_ambient times_s", t_ambient[0], "s")
+        temps = positive("t_ambient temperatures_K", t_ambient[1], "K")
+        if times.ndim != 1 or temps.ndim != 1:
+            raise ValueError("t_ambient: times_s and temperatures_K must be 1-D arrays [s], [K]")
+        if times.size == 0:
+            raise ValueError("t_ambient times_s: the profile is empty; give at least one point [s]")
+        if times.size != temps.size:
+            raise ValueError(
+                f"t_ambient: times_s has {times.size} values, temperatures_K {temps.size}; they must match"
+            )
+        if times[0] != 0.0:
+            raise ValueError(f"t_ambient times_s: must start at 0 s (got {times[0]:g})")
+        if np.any(np.diff(times) <= 0):
+            raise ValueError("t_ambient times_s: must increase strictly (sorted, no repeats) [s]")
+        return times, temps
+    temp = positive("t_ambient", t_ambient, "K")
+    if temp.ndim != 0:
+        raise ValueError(
+            "t_ambient: expected a temperature [K] or a (times_s, temperatures_K) step profile"
+        )
+    return np.zeros(1), temp.reshape(1)
+
+
+def _integral(times: np.ndarray, temps: np.ndarray, t) -> np.ndarray:
+    """∫_0^t T_a dt' of a step profile. [K·s]"""
+    t = np.asarray(t, float)
+    seg_ends = np.append(times[1:], np.inf)
+    cum = np.concatenate([[0.0], np.cumsum(temps[:-1] * np.diff(times))])
+    i = np.clip(np.searchsorted(times, t, side="right") - 1, 0, None)
+    del seg_ends
+    return cum[i] + temps[i] * (t - times[i])
+
+
+def mean_ambient(
+    t_ambient: AmbientLike, t_start: ArrayLike, t_end: ArrayLike
+) -> float | np.ndarray:
+    """Time-mean ambient temperature of a step profile between two times.
+
+    Parameters
+    ----------
+    t_ambient : float or (array, array)
+        Temperature [K] or step profile, see :func:`ambient_profile`.
+    t_start, t_end : float or array
+        Interval, ``t_end > t_start >= 0``. [s]
+
+    Returns
+    -------
+    float or array
+        :math:`\\frac{1}{t_1 - t_0}\\int_{t_0}^{t_1} T_a\\,dt`. [K]
+
+    Notes
+    -----
+    Exact for the step profile (sum of rectangles).
+
+    References
+    ----------
+    Definition (common practice).
+
+    Examples
+    --------
+    >>> mean_ambient(([0.0, 10.0], [300.0, 280.0]), 5.0, 15.0)
+    290.0
+    """
+    times, temps = ambient_profile(t_ambient)
+    t0 = nonnegative("t_start", t_start, "s")
+    t1 = positive("t_end", t_end, "s")
+    t0, t1 = broadcast(t_start=t0, t_end=t1)
+    if np.any(t1 <= t0):
+        raise ValueError("t_end: must be later than t_start [s]")
+    return scalar_or_array((_integral(times, temps, t1) - _integral(times, temps, t0)) / (t1 - t0))
+
+
+# ---------------------------------------------------------------------------
+# Closed form: one lumped node
+# ---------------------------------------------------------------------------
+def _safe_log_ratio(num: np.ndarray, den: np.ndarray, ok: np.ndarray) -> np.ndarray:
+    with np.errstate(divide="ignore", invalid="ignore"):
+        r = np.where(ok, num / np.where(ok, den, 1.0), 1.0)
+        return np.log(np.where(ok & (r > 0), r, 1.0))
+
+
+def hold_time(
+    conductance: ArrayLike,
+    t_ambient: AmbientLike,
+    coolant_mass: ArrayLike,
+    latent_heat: ArrayLike,
+    t_phase_change: ArrayLike,
+    payload_heat_capacity: ArrayLike = 0.0,
+    t_payload_start: ArrayLike | None = None,
+    t_payload_max: ArrayLike | None = None,
+) -> float | np.ndarray:
+    """Hold time of a shipper with one lumped inside node (closed form).
+
+    Parameters
+    ----------
+    conductance : float or array
+        Box conductance, ambient to inside (:func:`workbench.geometry.box_conductance`). [W/K]
+    t_ambient : float or (array, array)
+        Ambient temperature [K] or step profile ``(times_s [s], temperatures_K [K])``.
+    coolant_mass : float or array
+        Coolant mass, >= 0. [kg]
+    latent_heat : float or array
+        Latent heat of melting or sublimation of the coolant. [J/kg]
+    t_phase_change : float or array
+        Phase-change temperature of the coolant. [K]
+    payload_heat_capacity : float or array
+        Heat capacity of payload + inside air + inner packaging, >= 0. [J/K]
+    t_payload_start : float or array, optional
+        Payload temperature when packed; default the phase-change
+        temperature. It mixes with the coolant at once (lumped node). [K]
+    t_payload_max : float or array, optional
+        Highest allowed payload temperature. [K]
+
+    Returns
+    -------
+    float or array
+        Time until the coolant is spent [s] or, where ``t_payload_max`` is
+        given, until the payload (the node) first rises above it; ``inf``
+        where that never happens.
+
+    Notes
+    -----
+    Energy balance of the inside node (coolant sensible heat neglected):
+
+    .. math:: \\frac{dH}{dt} = UA\\,[T_a(t) - T(H)]
+
+    with :math:`T = T_{pc}` while :math:`0 \\le H \\le mL` (phase change) and
+    :math:`T = T_{pc} + (H - mL)/C` above, :math:`T_{pc} + H/C` below. For a
+    constant ambient above :math:`T_{pc}` and a payload packed at
+    :math:`T_{pc}`,
+
+    .. math:: t_{spent} = \\frac{m L}{UA\\,(T_a - T_{pc})}, \\qquad
+              t_{max} = t_{spent} + \\frac{C}{UA}\\ln\\frac{T_a - T_{pc}}{T_a - T_{max}}
+
+    A step profile is solved exactly segment by segment (coolant that has
+    melted refreezes while the ambient is below :math:`T_{pc}`). Caution:
+    an estimate; a shipper is qualified by test.
+
+    References
+    ----------
+    ``incropera7``: 7th ed., §5.3 (lumped capacitance) and §1.3 (energy
+    balance with phase change).
+
+    Examples
+    --------
+    >>> round(hold_time(0.5, 303.15, 2.0, 333550.0, 273.15) / 3600, 3)
+    12.354
+    >>> round(hold_time(0.5, 303.15, 2.0, 333550.0, 273.15, 20000.0,
+    ...                 t_payload_max=281.15) / 3600, 3)
+    15.8
+    """
+    ua = positive("conductance", conductance, "W/K")
+    times, temps = ambient_profile(t_ambient)
+    m = nonnegative("coolant_mass", coolant_mass, "kg")
+    lat = positive("latent_heat", latent_heat, "J/kg")
+    tpc = positive("t_phase_change", t_phase_change, "K")
+    cap_c = nonnegative("payload_heat_capacity", payload_heat_capacity, "J/K")
+    ts = tpc if t_payload_start is None else positive("t_payload_start", t_payload_start, "K")
+    want_max = t_payload_max is not None
+    tmax = positive("t_payload_max", t_payload_max, "K") if want_max else np.inf
+    ua, m, lat, tpc, cap_c, ts, tmax = (
+        np.array(a, float)
+        for a in broadcast(
+            conductance=ua,
+            coolant_mass=m,
+            latent_heat=lat,
+            t_phase_change=tpc,
+            payload_heat_capacity=cap_c,
+            t_payload_start=ts,
+            t_payload_max=tmax,
+        )
+    )
+    cap = m * lat
+    e0 = cap_c * (ts - tpc)
+    energy = np.clip(e0, 0.0, cap)
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        temp = np.where(
+            e0 < 0, ts, np.where(e0 > cap, tpc + (e0 - cap) / np.where(cap_c > 0, cap_c, 1.0), tpc)
+        )
+    region = np.where(e0 < 0, -1, np.where(e0 >= cap, 1, 0))
+    t_spent = np.where(e0 >= cap, 0.0, np.inf)
+    t_over = np.where(temp > tmax, 0.0, np.inf)
+    tau = cap_c / ua
+
+    n_seg = times.size
+    for i in range(n_seg):
+        t_now = np.full(ua.shape, times[i])
+        left = np.full(ua.shape, times[i + 1] - times[i] if i + 1 < n_seg else np.inf)
+        ta = temps[i]
+        for _ in range(3):
+            active = left > 0
+            if not np.any(active):
+                break
+            expo = region != 0
+            # exponential regions: time to reach t_phase_change (if heading there)
+            heading = ((region == -1) & (ta > tpc)) | ((region == 1) & (ta < tpc))
+            ok = expo & heading
+            tb_e = np.where(ok, tau * _safe_log_ratio(ta - temp, ta - tpc, ok), np.inf)
+            # linear region: time to fully melted or fully frozen
+            rate = ua * (ta - tpc)
+            with np.errstate(divide="ignore", invalid="ignore"):
+                tb_l = np.where(
+                    rate > 0, (cap - energy) / rate, np.where(rate < 0, energy / -rate, np.inf)
+                )
+            tb = np.where(expo, tb_e, tb_l)
+            step = np.minimum(left, tb)
+            hit = active & (tb <= left)
+            # payload crossing t_payload_max inside an exponential stretch
+            if want_max:
+                ok_x = active & expo & (temp <= tmax) & (ta > tmax) & (np.isinf(t_over))
+                t_x = np.where(ok_x, tau * _safe_log_ratio(ta - temp, ta - tmax, ok_x), np.inf)
+                crossed = ok_x & (t_x <= step) & ((step > 0) | (t_x == 0) & (left > 0))
+                t_over = np.where(crossed, t_now + t_x, t_over)
+            # advance
+            with np.errstate(over="ignore", invalid="ignore", divide="ignore"):
+                decay = np.where(
+                    tau > 0,
+                    np.exp(-step / np.where(tau > 0, tau, 1.0)),
+                    np.where(step > 0, 0.0, 1.0),
+                )
+            temp_e = ta + (temp - ta) * decay
+            energy_l = np.where(
+                np.isfinite(step), energy + rate * np.where(np.isfinite(step), step, 0.0), energy
+            )
+            new_temp = np.where(active & expo, temp_e, temp)
+            new_energy = np.where(active & ~expo, energy_l, energy)
+            # region changes at boundaries
+            to_lin = hit & expo
+            new_temp = np.where(to_lin, tpc, new_temp)
+            melted = hit & ~expo & (rate > 0)
+            frozen = hit & ~expo & (rate < 0)
+            new_energy = np.where(melted, cap, np.where(frozen, 0.0, new_energy))
+            t_spent = np.where(melted & np.isinf(t_spent), t_now + step, t_spent)
+            region = np.where(to_lin, 0, np.where(melted, 1, np.where(frozen, -1, region)))
+            temp, energy = new_temp, new_energy
+            fin = np.isfinite(step)
+            t_now = np.where(active, t_now + np.where(fin, step, 0.0), t_now)
+            left = np.where(active, np.where(fin, left - np.where(fin, step, 0.0), 0.0), left)
+            # with no heat capacity the node jumps to the ambient in an exponential region
+            if want_max:
+                jump = (region == 1) & (cap_c == 0) & (ta > tmax) & np.isinf(t_over) & (left > 0)
+                t_over = np.where(jump, t_now, t_over)
+    return scalar_or_array(t_over if want_max else t_spent)
+
+
+# ---------------------------------------------------------------------------
+# General case: two nodes, time-stepped
+# ---------------------------------------------------------------------------
+@dataclass(frozen=True)
+class HoldSimulation:
+    """Result of :func:`simulate_hold` (arrays over the variant shape, time on the last axis).
+
+    Attributes
+    ----------
+    times : ndarray
+        Stored times, shape ``(n_t,)``. [s]
+    ambient : ndarray
+        Step-mean ambient temperature ending at each stored time (first value
+        the ambient at 0), shape ``(n_t,)``. [K]
+    payload_temperature, coolant_temperature : ndarray
+        Node temperatures, shape ``variants + (n_t,)``; once a coolant
+        without a liquid phase (dry ice) is gone, the coolant column repeats
+        the payload temperature. [K]
+    coolant_fraction_left : ndarray
+        Fraction of the latent capacity not yet used, 0–1. [-]
+    heat_in : ndarray
+        Cumulative heat through the box wall into the inside. [J]
+    stored_energy : ndarray
+        Energy stored in both nodes relative to the start. [J]
+    time_coolant_spent : ndarray
+        First time the coolant is fully melted (sublimed); ``inf`` if not in
+        the run. [s]
+    time_out_of_range : ndarray
+        First time the payload leaves its range (step-end samples, linear
+        interpolation); ``inf`` if not in the run. [s]
+    hold_time : ndarray
+        The earlier of the two, capped at ``duration``. [s]
+    reason : ndarray of str
+        One of :data:`REASONS` per variant.
+    duration : float
+        Length of the run. [s]
+    """
+
+    times: np.ndarray
+    ambient: np.ndarray
+    payload_temperature: np.ndarray
+    coolant_temperature: np.ndarray
+    coolant_fraction_left: np.ndarray
+    heat_in: np.ndarray
+    stored_energy: np.ndarray
+    time_coolant_spent: np.ndarray
+    time_out_of_range: np.ndarray
+    hold_time: np.ndarray
+    reason: np.ndarray
+    duration: float
+
+
+def _limit(name: str, value, default: float) -> np.ndarray:
+    return np.asarray(default) if value is None else positive(name, value, "K")
+
+
+def simulate_hold(
+    conductance: ArrayLike,
+    t_ambient: AmbientLike,
+    coolant_mass: ArrayLike,
+    latent_heat: ArrayLike,
+    t_phase_change: ArrayLike,
+    duration: float,
+    time_step: float = 300.0,
+    *,
+    specific_heat_solid: ArrayLike = 0.0,
+    specific_heat_liquid: ArrayLike = 0.0,
+    payload_heat_capacity: ArrayLike = 1000.0,
+    coupling_conductance: ArrayLike = 5.0,
+    coolant_wall_fraction: ArrayLike = 1.0,
+    t_coolant_start: ArrayLike | None = None,
+    t_payload_start: ArrayLike | None = None,
+    t_payload_min: ArrayLike | None = None,
+    t_payload_max: ArrayLike | None = None,
+    record_every: int = 1,
+) -> HoldSimulation:
+    """Time-stepped hold of many shipper variants at once (two-node energy balance).
+
+    Parameters
+    ----------
+    conductance : float or array
+        Box conductance, ambient to inside. [W/K]
+    t_ambient : float or (array, array)
+        Ambient temperature [K] or step profile ``(times_s, temperatures_K)``.
+    coolant_mass : float or array
+        Coolant mass. [kg]
+    latent_heat : float or array
+        Latent heat of melting or sublimation. [J/kg]
+    t_phase_change : float or array
+        Phase-change temperature. [K]
+    duration : float
+        Length of the run. [s]
+    time_step : float
+        Step length; the step is stable for any length, accuracy wants it
+        short against the payload node's time constant. [s]
+    specific_heat_solid, specific_heat_liquid : float or array
+        Coolant specific heats below and above the phase change; 0 for a
+        liquid that is not there (dry ice: the gas leaves, the coolant node
+        disappears once spent). [J/(kg·K)]
+    payload_heat_capacity : float or array
+        Heat capacity of payload + inside air + inner packaging, > 0. [J/K]
+    coupling_conductance : float or array
+        Conductance between the payload node and the coolant, > 0 (of the
+        order of a film coefficient times the contact area). [W/K]
+    coolant_wall_fraction : float or array
+        Share of the box conductance that reaches the coolant directly
+        (packs lining the walls: 1; packs on top only: about 1/6), 0–1. [-]
+    t_coolant_start : float or array, optional
+        Coolant temperature when packed; at or below the phase change it is
+        fully solid, above it fully liquid. Default: the phase-change
+        temperature, solid ("conditioned"). [K]
+    t_payload_start : float or array, optional
+        Payload temperature when packed; default the phase-change temperature. [K]
+    t_payload_min, t_payload_max : float or array, optional
+        Allowed payload range (e.g. 275.15 and 281.15 for 2–8 °C); ``None``
+        for no limit on that side. [K]
+    record_every : int
+        Store every n-th step (events are found on every step).
+
+    Returns
+    -------
+    HoldSimulation
+        Time series, event times and reasons.
+
+    Notes
+    -----
+    Nodes: payload (capacity :math:`C_p`) and coolant (specific enthalpy
+    :math:`h`, zero for solid at :math:`T_{pc}`):
+
+    .. math::
+        C_p \\dot T_p = (1-\\phi)\\,UA\\,(T_a - T_p) + G\\,(T_c - T_p) \\\\
+        m \\dot h = \\phi\\,UA\\,(T_a - T_c) + G\\,(T_p - T_c)
+
+    with :math:`T_c = T_{pc} + h/c_s` for :math:`h < 0`, :math:`T_{pc}` for
+    :math:`0 \\le h \\le L`, :math:`T_{pc} + (h-L)/c_l` above. Each step
+    solves the linear system exactly with the ambient's step mean and the
+    coolant capacity of its state at the start of the step (infinite during
+    the phase change), books the exact heat flows and updates :math:`h`, so
+    energy is conserved to round-off and no step length is unstable. With a
+    large :math:`G`, :math:`\\phi = 1` and the coolant conditioned at
+    :math:`T_{pc}` the spent time tends to :math:`mL/(UA\\,\\Delta T)`
+    (:func:`hold_time`). Range exits are detected at step ends.
+
+    Caution: an estimate. Packaging for medicines is qualified by testing
+    under the applicable distribution rules; frozen water-based packs can
+    freeze a 2–8 °C payload (condition them, no direct contact); dry ice
+    needs a vented box and dangerous-goods handling for air transport.
+
+    References
+    ----------
+    ``incropera7``: 7th ed., §5.3 (lumped capacitance), §5.9 (multiple
+    lumped nodes); enthalpy formulation of phase change (common practice).
+
+    Examples
+    --------
+    >>> sim = simulate_hold([0.4, 0.5], 303.15, 2.0, 333550.0, 273.15, 48 * 3600.0,
+    ...                     coupling_conductance=50.0, specific_heat_liquid=4210.0)
+
+    The closed form m L / (UA ΔT) gives 15.44 h and 12.35 h:
+
+    >>> (sim.time_coolant_spent / 3600).round(2)
+    array([15.44, 12.35])
+    >>> list(sim.reason)
+    ['coolant spent', 'coolant spent']
+    """
+    times_p, temps_p = ambient_profile(t_ambient)
+    dur = float(positive("duration", duration, "s"))
+    dt = float(positive("time_step", time_step, "s"))
+    if not isinstance(record_every, int | np.integer) or record_every < 1:
+        raise ValueError(f"record_every: must be a positive integer (got {record_every!r})")
+    ua = positive("conductance", conductance, "W/K")
+    m = positive("coolant_mass", coolant_mass, "kg")
+    lat = positive("latent_heat", latent_heat, "J/kg")
+    tpc = positive("t_phase_change", t_phase_change, "K")
+    cs = nonnegative("specific_heat_solid", specific_heat_solid, "J/(kg·K)")
+    cl = nonnegative("specific_heat_liquid", specific_heat_liquid, "J/(kg·K)")
+    cp_ = positive("payload_heat_capacity", payload_heat_capacity, "J/K")
+    g = positive("coupling_conductance", coupling_conductance, "W/K")
+    phi = in_range("coolant_wall_fraction", coolant_wall_fraction, 0.0, 1.0, "-")
+    tc0 = tpc if t_coolant_start is None else positive("t_coolant_start", t_coolant_start, "K")
+    tp0 = tpc if t_payload_start is None else positive("t_payload_start", t_payload_start, "K")
+    tmin = _limit("t_payload_min", t_payload_min, -np.inf)
+    tmax = _limit("t_payload_max", t_payload_max, np.inf)
+    arrays = broadcast(
+        conductance=ua,
+        coolant_mass=m,
+        latent_heat=lat,
+        t_phase_change=tpc,
+        specific_heat_solid=cs,
+        specific_heat_liquid=cl,
+        payload_heat_capacity=cp_,
+        coupling_conductance=g,
+        coolant_wall_fraction=phi,
+        t_coolant_start=tc0,
+        t_payload_start=tp0,
+        t_payload_min=tmin,
+        t_payload_max=tmax,
+    )
+    shape = arrays[0].shape
+    ua, m, lat, tpc, cs, cl, cp_, g, phi, tc0, tp0, tmin, tmax = (
+        np.array(a, float).ravel() for a in arrays
+    )
+    if np.any(tmin >= tmax):
+        raise ValueError(
+            "t_payload_min, t_payload_max: the payload range is inverted or empty (min must be below max) [K]"
+        )
+    if np.any((tc0 < tpc) & (cs == 0)):
+        raise ValueError(
+            "t_coolant_start: below the phase change needs specific_heat_solid > 0 [J/(kg·K)]"
+        )
+    if np.any((tc0 > tpc) & (cl == 0)):
+        raise ValueError(
+            "t_coolant_start: above the phase change needs specific_heat_liquid > 0 [J/(kg·K)]"
+        )
+
+    n_steps = int(np.ceil(dur / dt - 1e-9))
+    edges = np.minimum(np.arange(n_steps + 1) * dt, dur)
+    integ = _integral(times_p, temps_p, edges)
+    ta_steps = np.diff(integ) / np.diff(edges)
+
+    h = np.where(tc0 < tpc, cs * (tc0 - tpc), np.where(tc0 > tpc, lat + cl * (tc0 - tpc), 0.0))
+    tp = tp0.copy()
+    n = ua.size
+    rec_idx = list(range(0, n_steps + 1, record_every))
+    if rec_idx[-1] != n_steps:
+        rec_idx.append(n_steps)
+    n_rec = len(rec_idx)
+    out_tp = np.empty((n, n_rec))
+    out_tc = np.empty((n, n_rec))
+    out_f = np.empty((n, n_rec))
+    out_q = np.empty((n, n_rec))
+    out_e = np.empty((n, n_rec))
+    h_start, tp_start = h.copy(), tp.copy()
+    heat_in = np.zeros(n)
+
+    def coolant_temp(hh):
+        with np.errstate(divide="ignore", invalid="ignore"):
+            below = tpc + hh / np.where(cs > 0, cs, 1.0)
+            above = tpc + (hh - lat) / np.where(cl > 0, cl, 1.0)
+        return np.where(hh < 0, below, np.where(hh > lat, np.where(cl > 0, above, tp), tpc))
+
+    def store(j, tc_now):
+        out_tp[:, j] = tp
+        out_tc[:, j] = tc_now
+        out_f[:, j] = 1.0 - np.clip(h / lat, 0.0, 1.0)
+        out_q[:, j] = heat_in
+        out_e[:, j] = cp_ * (tp - tp_start) + m * (h - h_start)
+
+    t_spent = np.where(h >= lat, 0.0, np.inf)
+    t_out = np.where((tp < tmin) | (tp > tmax), 0.0, np.inf)
+    why_out = np.where(tp > tmax, 1, np.where(tp < tmin, 2, 0))
+    rec_pos = 0
+    tc = coolant_temp(h)
+    store(0, tc)
+    rec_pos = 1
+    ua_w_c = phi * ua
+    ua_w_p = (1.0 - phi) * ua
+    for k in range(n_steps):
+        step = edges[k + 1] - edges[k]
+        ta = ta_steps[k]
+        latent = (h >= 0) & (h <= lat)
+        gone = (h > lat) & (cl == 0)
+        c_c = m * np.where(h < 0, cs, cl)
+        # coolant gone (sublimed): the payload node alone takes the whole wall
+        g_eff = np.where(gone, 0.0, g)
+        wc = np.where(gone, 0.0, ua_w_c)
+        wp = np.where(gone, ua, ua_w_p)
+        a = wp + g_eff
+        b = wc + g_eff
+        # (1) coolant at fixed temperature (phase change, or gone): payload alone, exact
+        tc_fix = np.where(gone, tp, tpc)
+        teq = (wp * ta + g_eff * tc_fix) / a
+        decay = np.exp(-a * step / cp_)
+        tp1_fix = teq + (tp - teq) * decay
+        tpbar_fix = teq + (tp - teq) * (1.0 - decay) * cp_ / (a * step)
+        q_c_fix = wc * (ta - tc_fix) * step + g_eff * (tpbar_fix - tc_fix) * step
+        # (2) sensible coolant: exact two-node solution
+        sens = ~(latent | gone)
+        if np.any(sens):
+            c_cs = np.where(sens, c_c, 1.0)
+            m11, m12 = -a / cp_, g_eff / cp_
+            m21, m22 = g_eff / c_cs, -b / c_cs
+            det = m11 * m22 - m12 * m21
+            f1 = wp * ta / cp_
+            f2 = wc * ta / c_cs
+            # steady state x* = -M^-1 f
+            xs1 = -(m22 * f1 - m12 * f2) / det
+            xs2 = -(-m21 * f1 + m11 * f2) / det
+            y1, y2 = tp - xs1, tc - xs2
+            s = 0.5 * (m11 + m22)
+            q = np.sqrt(np.maximum(s * s - det, 0.0))
+            l1, l2 = s + q, s - q
+            e1, e2 = np.exp(l1 * step), np.exp(l2 * step)
+            small = q * step < 1e-8
+            qs = np.where(small, 1.0, q)
+            sh = np.where(small, step * np.exp(s * step), (e1 - e2) / (2 * qs))  # e^{st} sinh(qt)/q
+            ch = 0.5 * (e1 + e2)  # e^{st} cosh(qt)
+            # E = e^{M t} = (ch - s*sh) I + sh M
+            d0 = ch - s * sh
+            e11, e12, e21, e22 = d0 + sh * m11, sh * m12, sh * m21, d0 + sh * m22
+            z1 = e11 * y1 + e12 * y2
+            z2 = e21 * y1 + e22 * y2
+            # integral of y: M^-1 (E - I) y
+            w1, w2 = z1 - y1, z2 - y2
+            iy1 = (m22 * w1 - m12 * w2) / det
+            iy2 = (-m21 * w1 + m11 * w2) / det
+            tp1_s = xs1 + z1
+            tc1_s = xs2 + z2
+            tpbar_s = xs1 + iy1 / step
+            tcbar_s = xs2 + iy2 / step
+            q_c_s = c_cs * (tc1_s - tc)
+            tp1 = np.where(sens, tp1_s, tp1_fix)
+            q_c = np.where(sens, q_c_s, q_c_fix)
+            tpbar = np.where(sens, tpbar_s, tpbar_fix)
+            tcbar = np.where(sens, tcbar_s, tc_fix)
+        else:
+            tp1, q_c, tpbar, tcbar = tp1_fix, q_c_fix, tpbar_fix, tc_fix
+        # heat through the wall from the step-mean node temperatures (booked
+        # independently of the stored energy, so a conservation check can fail)
+        q_wall = (wp * (ta - tpbar) + wc * (ta - tcbar)) * step
+        h_new = h + q_c / m
+        # events
+        crossed = np.isinf(t_spent) & (h < lat) & (h_new >= lat)
+        with np.errstate(divide="ignore", invalid="ignore"):
+            frac = np.clip((lat - h) / (h_new - h), 0.0, 1.0)
+        t_spent = np.where(crossed, edges[k] + frac * step, t_spent)
+        hot = np.isinf(t_out) & (tp1 > tmax)
+        cold = np.isinf(t_out) & (tp1 < tmin)
+        with np.errstate(divide="ignore", invalid="ignore"):
+            f_hot = np.clip((tmax - tp) / (tp1 - tp), 0.0, 1.0)
+            f_cold = np.clip((tmin - tp) / (tp1 - tp), 0.0, 1.0)
+        t_out = np.where(
+            hot, edges[k] + f_hot * step, np.where(cold, edges[k] + f_cold * step, t_out)
+        )
+        why_out = np.where(hot, 1, np.where(cold, 2, why_out))
+        h, tp = h_new, tp1
+        heat_in = heat_in + q_wall
+        tc = coolant_temp(h)
+        if rec_pos < n_rec and rec_idx[rec_pos] == k + 1:
+            store(rec_pos, tc)
+            rec_pos += 1
+
+    hold = np.minimum(np.minimum(t_spent, t_out), dur)
+    reason_idx = np.where(t_spent <= t_out, np.where(np.isfinite(t_spent), 0, 3), why_out)
+    reason = np.array(REASONS, dtype=object)[reason_idx]
+
+    def shp(x):
+        return x.reshape(shape + x.shape[1:])
+
+    return HoldSimulation(
+        times=edges[rec_idx],
+        ambient=np.concatenate([[temps_p[0]], ta_steps])[rec_idx],
+        payload_temperature=shp(out_tp),
+        coolant_temperature=shp(out_tc),
+        coolant_fraction_left=shp(out_f),
+        heat_in=shp(out_q),
+        stored_energy=shp(out_e),
+        time_coolant_spent=shp(t_spent),
+        time_out_of_range=shp(t_out),
+        hold_time=shp(hold),
+        reason=shp(reason),
+        duration=dur,
+    )
+
+
+# ---------------------------------------------------------------------------
+# Sizing (vectorised monotone bisection on the closed-form model)
+# ---------------------------------------------------------------------------
+def _bisect(
+    fn, lo: np.ndarray, hi: np.ndarray, increasing: bool, iterations: int = 60
+) -> np.ndarray:
+    """Smallest x in [lo, hi] with fn(x) true, for fn monotone in x (geometric steps)."""
+    lo, hi = lo.copy(), hi.copy()
+    for _ in range(iterations):
+        mid = np.sqrt(lo * hi)
+        good = fn(mid)
+        if increasing:
+            hi = np.where(good, mid, hi)
+            lo = np.where(good, lo, mid)
+        else:
+            lo = np.where(good, mid, lo)
+            hi = np.where(good, hi, mid)
+    return hi if increasing else lo
+
+
+def _impossible(
+    bad: np.ndarray, result: np.ndarray, on_impossible: str, message: str
+) -> np.ndarray:
+    if on_impossible not in ("raise", "nan"):
+        raise ValueError(f"on_impossible: unknown {on_impossible!r}; valid: ['raise', 'nan']")
+    if np.any(bad):
+        if on_impossible == "raise":
+            raise ValueError(message)
+        result = np.where(bad, np.nan, result)
+    return result
+
+
+def _max_melted_energy(ua, times, temps, tpc, cap_c, ts, duration) -> np.ndarray:
+    """Largest melted energy over [0, duration] of the lumped model with unlimited coolant. [J]
+
+    Before the coolant is spent the process does not depend on the coolant
+    mass, so the mass that just lasts is this maximum over the latent heat.
+    """
+    e = np.maximum(cap_c * (ts - tpc), 0.0)
+    temp = np.where(ts < tpc, ts, tpc)
+    below = ts < tpc
+    e_max = e.copy()
+    tau = cap_c / ua
+    n_seg = times.size
+    for i in range(n_seg):
+        t0 = times[i]
+        t1 = times[i + 1] if i + 1 < n_seg else np.inf
+        left = np.clip(np.minimum(t1, duration) - t0, 0.0, None)
+        if not np.any(left > 0):
+            break
+        ta = temps[i]
+        for _ in range(2):
+            heading = below & (ta > tpc)
+            tb_e = np.where(heading, tau * _safe_log_ratio(ta - temp, ta - tpc, heading), np.inf)
+            rate = ua * (ta - tpc)
+            with np.errstate(divide="ignore", invalid="ignore"):
+                tb_l = np.where(rate < 0, e / np.where(rate < 0, -rate, 1.0), np.inf)
+            tb = np.where(below, tb_e, tb_l)
+            step = np.minimum(left, tb)
+            hit = (tb <= left) & (left > 0)
+            with np.errstate(over="ignore", invalid="ignore", divide="ignore"):
+                decay = np.where(
+                    tau > 0,
+                    np.exp(-step / np.where(tau > 0, tau, 1.0)),
+                    np.where(step > 0, 0.0, 1.0),
+                )
+            temp = np.where(below, np.where(hit, tpc, ta + (temp - ta) * decay), temp)
+            e = np.where(below, e, np.where(hit & (rate < 0), 0.0, e + rate * step))
+            e_max = np.maximum(e_max, e)
+            below = np.where(hit, ~below, below)
+            left = np.where(hit, left - step, 0.0)
+    return e_max
+
+
+def coolant_mass_for_duration(
+    duration: ArrayLike,
+    conductance: ArrayLike,
+    t_ambient: AmbientLike,
+    latent_heat: ArrayLike,
+    t_phase_change: ArrayLike,
+    payload_heat_capacity: ArrayLike = 0.0,
+    t_payload_start: ArrayLike | None = None,
+    safety_factor: ArrayLike = 1.0,
+    on_impossible: str = "raise",
+) -> float | np.ndarray:
+    """Coolant mass that lasts a target duration, times a safety factor.
+
+    Parameters
+    ----------
+    duration : float or array
+        Target hold time. [s]
+    conductance : float or array
+        Box conductance. [W/K]
+    t_ambient : float or (array, array)
+        Ambient temperature [K] or step profile.
+    latent_heat : float or array
+        Latent heat of the coolant. [J/kg]
+    t_phase_change : float or array
+        Phase-change temperature. [K]
+    payload_heat_capacity : float or array
+        Heat capacity of the inside node. [J/K]
+    t_payload_start : float or array, optional
+        Payload temperature when packed (default: phase change). [K]
+    safety_factor : float or array
+        Multiplier on the mass, >= 1 (common practice: 1.1–1.5). [-]
+    on_impossible : str
+        ``"raise"`` or ``"nan"``; kept for symmetry with the other sizing
+        functions (some mass always lasts for the spent-coolant criterion).
+
+    Returns
+    -------
+    float or array
+        Coolant mass. [kg]
+
+    Notes
+    -----
+    Until the coolant is spent, the lumped model of :func:`hold_time` does
+    not depend on the coolant mass, so the mass that just lasts is the
+    largest melted energy over the duration divided by the latent heat
+    (exact, segment by segment), times the safety factor. For a constant
+    ambient and a payload packed at :math:`T_{pc}`:
+
+    .. math:: m = f_s\\, UA\\,(T_a - T_{pc})\\,t / L
+
+    References
+    ----------
+    Energy balance (``incropera7``, §1.3); safety factor: common practice.
+
+    Examples
+    --------
+    >>> round(coolant_mass_for_duration(48 * 3600.0, 0.5, 303.15, 333550.0, 273.15), 4)
+    7.7709
+    """
+    t = positive("duration", duration, "s")
+    ua = positive("conductance", conductance, "W/K")
+    lat = positive("latent_heat", latent_heat, "J/kg")
+    tpc = positive("t_phase_change", t_phase_change, "K")
+    cap_c = nonnegative("payload_heat_capacity", payload_heat_capacity, "J/K")
+    ts = tpc if t_payload_start is None else positive("t_payload_start", t_payload_start, "K")
+    sf = finite("safety_factor", safety_factor, "-")
+    if np.any(sf < 1.0):
+        raise ValueError("safety_factor: must be >= 1 [-]")
+    if on_impossible not in ("raise", "nan"):
+        raise ValueError(f"on_impossible: unknown {on_impossible!r}; valid: ['raise', 'nan']")
+    t, ua, lat, tpc, cap_c, ts, sf = (
+        np.array(x, float)
+        for x in broadcast(
+            duration=t,
+            conductance=ua,
+            latent_heat=lat,
+            t_phase_change=tpc,
+            payload_heat_capacity=cap_c,
+            t_payload_start=ts,
+            safety_factor=sf,
+        )
+    )
+    times, temps = ambient_profile(t_ambient)
+    e_max = _max_melted_energy(ua, times, temps, tpc, cap_c, ts, t)
+    m = e_max / lat
+    return scalar_or_array(m * sf)
+
+
+def max_conductance_for_duration(
+    duration: ArrayLike,
+    t_ambient: AmbientLike,
+    coolant_mass: ArrayLike,
+    latent_heat: ArrayLike,
+    t_phase_change: ArrayLike,
+    payload_heat_capacity: ArrayLike = 0.0,
+    t_payload_start: ArrayLike | None = None,
+    t_payload_max: ArrayLike | None = None,
+    on_impossible: str = "raise",
+) -> float | np.ndarray:
+    """Largest box conductance that still holds for the target duration.
+
+    Parameters
+    ----------
+    duration : float or array
+        Target hold time. [s]
+    t_ambient : float or (array, array)
+        Ambient temperature [K] or step profile.
+    coolant_mass, latent_heat, t_phase_change, payload_heat_capacity,
+    t_payload_start, t_payload_max
+        As for :func:`hold_time`. [kg], [J/kg], [K], [J/K], [K], [K]
+    on_impossible : str
+        ``"raise"`` (default) or ``"nan"`` where even a nearly perfect
+        insulation (1e-9 W/K) does not reach the duration.
+
+    Returns
+    -------
+    float or array
+        Conductance. [W/K]
+
+    Notes
+    -----
+    :func:`hold_time` decreases monotonically with UA; bisection in log
+    space. For a constant ambient: :math:`UA = mL / (\\Delta T\\,t)`.
+
+    References
+    ----------
+    Energy balance (``incropera7``, §1.3).
+
+    Examples
+    --------
+    >>> round(max_conductance_for_duration(48 * 3600.0, 303.15, 2.0, 333550.0, 273.15), 5)
+    0.12868
+    """
+    t = positive("duration", duration, "s")
+    times, temps = ambient_profile(t_ambient)
+    m = positive("coolant_mass", coolant_mass, "kg")
+    t, m = (np.array(x, float) for x in broadcast(duration=t, coolant_mass=m))
+    shape = np.broadcast_shapes(
+        t.shape, np.shape(latent_heat), np.shape(t_phase_change), np.shape(payload_heat_capacity)
+    )
+    lo = np.full(shape, 1e-9)
+    hi = np.full(shape, 1e4)
+
+    def ok(ua):
+        return (
+            hold_time(
+                ua,
+                (times, temps),
+                m,
+                latent_heat,
+                t_phase_change,
+                payload_heat_capacity,
+                t_payload_start,
+                t_payload_max,
+            )
+            >= t
+        )
+
+    g = _bisect(ok, lo, hi, increasing=False)
+    g = _impossible(
+        ~ok(lo),
+        g,
+        on_impossible,
+        "duration: not reachable with this coolant even with near-perfect insulation "
+        "(too little coolant for the payload's start temperature, or the payload limit "
+        "lies below the phase-change temperature)",
+    )
+    return scalar_or_array(g)
+
+
+def thickness_for_duration(
+    duration: ArrayLike,
+    conductance_of_thickness: Callable[[np.ndarray], ArrayLike],
+    t_ambient: AmbientLike,
+    coolant_mass: ArrayLike,
+    latent_heat: ArrayLike,
+    t_phase_change: ArrayLike,
+    thickness_max: float = 0.3,
+    thickness_min: float = 1e-4,
+    payload_heat_capacity: ArrayLike = 0.0,
+    t_payload_start: ArrayLike | None = None,
+    t_payload_max: ArrayLike | None = None,
+    on_impossible: str = "raise",
+) -> float | np.ndarray:
+    """Insulation thickness that holds for a target duration with a given coolant mass.
+
+    Parameters
+    ----------
+    duration : float or array
+        Target hold time. [s]
+    conductance_of_thickness : callable
+        ``f(thickness [m] array) -> conductance [W/K] array`` of the same
+        shape, decreasing with thickness (e.g. a wrapper of
+        :func:`workbench.geometry.box_conductance` for one wall build-up per
+        element).
+    t_ambient : float or (array, array)
+        Ambient temperature [K] or step profile.
+    coolant_mass, latent_heat, t_phase_change : float or array
+        Coolant. [kg], [J/kg], [K]
+    thickness_max, thickness_min : float
+        Search bounds. [m]
+    payload_heat_capacity, t_payload_start, t_payload_max
+        As for :func:`hold_time`. [J/K], [K], [K]
+    on_impossible : str
+        ``"raise"`` (default) or ``"nan"`` where ``thickness_max`` is not enough.
+
+    Returns
+    -------
+    float or array
+        Smallest thickness meeting the duration (``thickness_min`` where
+        that already suffices). [m]
+
+    Notes
+    -----
+    Two monotone bisections: the largest UA (:func:`max_conductance_for_duration`),
+    then the thickness with :math:`UA(d) \\le UA_{max}`.
+
+    References
+    ----------
+    Energy balance (``incropera7``, §1.3); shape factors of the box in
+    ``conductance_of_thickness``.
+
+    Examples
+    --------
+    >>> from workbench.geometry import box_conductance
+    >>> f = lambda d: box_conductance(0.3, 0.25, 0.2, d, 0.033)
+    >>> round(thickness_for_duration(48 * 3600.0, f, 303.15, 4.0, 333550.0, 273.15), 4)
+    0.0606
+    """
+    ua_max = np.asarray(
+        max_conductance_for_duration(
+            duration,
+            t_ambient,
+            coolant_mass,
+            latent_heat,
+            t_phase_change,
+            payload_heat_capacity,
+            t_payload_start,
+            t_payload_max,
+            on_impossible=on_impossible,
+        )
+    )
+    d_hi = float(positive("thickness_max", thickness_max, "m"))
+    d_lo = float(positive("thickness_min", thickness_min, "m"))
+    if d_lo >= d_hi:
+        raise ValueError("thickness_min: must be below thickness_max [m]")
+    lo = np.full(ua_max.shape, d_lo)
+    hi = np.full(ua_max.shape, d_hi)
+
+    def ok(d):
+        return np.asarray(conductance_of_thickness(d), float) <= ua_max
+
+    d = _bisect(ok, lo, hi, increasing=True)
+    d = np.where(ok(lo), d_lo, d)
+    d = _impossible(
+        ~ok(hi) | np.isnan(ua_max),
+        d,
+        on_impossible,
+        "duration: thickness_max is not enough insulation for it with this coolant mass",
+    )
+    return scalar_or_array(d)
