@@ -173,7 +173,7 @@ def test_sources_table_is_complete_and_honest():
         assert key in SOURCES, key
     for key, rec in SOURCES.items():
         assert rec["citation"], key
-        assert rec["kind"] in ("handbook", "standard", "library", "marker"), key
+        assert rec["kind"] in ("handbook", "standard", "library", "marker", "other"), key
         if key.endswith("-mem"):
             # recalled values must say so
             assert "recalled" in rec["note"].lower(), key

@@ -48,7 +48,17 @@ from workbench.materials import (
     load_materials,
     load_sources,
 )
+from workbench.ranking import (
+    Criterion,
+    Limit,
+    material_indices,
+    pareto_front,
+    rank_stability,
+    screen_candidates,
+    weighted_scores,
+)
 from workbench.spreading import spreading_length, spreading_resistance, wall_biot_number
+from workbench.stacks import check_service_limits, enumerate_stacks, stack_catalogue, stack_front
 from workbench.surfaces import (
     SURFACE_RESISTANCES,
     SurfaceFilm,
@@ -68,6 +78,7 @@ from workbench.transient import (
     simulate_hold,
     thickness_for_duration,
 )
+from workbench.uncertainty import MonteCarloResult, monte_carlo
 from workbench.units import UnitError, format_quantity, parse
 
 __version__ = "0.1.0"
@@ -128,6 +139,19 @@ __all__ = [
     "hold_time",
     "simulate_hold",
     "thickness_for_duration",
+    "Criterion",
+    "Limit",
+    "material_indices",
+    "pareto_front",
+    "rank_stability",
+    "screen_candidates",
+    "weighted_scores",
+    "check_service_limits",
+    "enumerate_stacks",
+    "stack_catalogue",
+    "stack_front",
+    "MonteCarloResult",
+    "monte_carlo",
     "FAMILIES",
     "MaterialsFileError",
     "check_materials_file",

@@ -248,7 +248,8 @@ class WallStudy:
     def flux(self, thicknesses, delta_t=None) -> np.ndarray:
         """Air-to-air heat flux [W/m²] for sized-layer thicknesses [m].
 
-        Returns shape ``(n_candidates,) + np.shape(thicknesses)``; with
+        The size of the flux, whichever way it flows (``results()`` states the
+        direction). Returns shape ``(n_candidates,) + np.shape(thicknesses)``; with
         ``delta_t`` an array [K], its axes follow (``delta_t`` broadcasts
         against the thickness axes as given).
         """
@@ -258,10 +259,10 @@ class WallStudy:
         extra = (1,) * lt.ndim
         k = self._k().reshape(-1, *extra)
         r = (self.r_si + self.r_se + a["r_fixed"]).reshape(-1, *extra) + lt / k
-        return dt / r
+        return np.abs(dt) / r
 
     def sweep(self, thicknesses, delta_ts) -> np.ndarray:
-        """Flux over candidates x thicknesses x temperature differences. [W/m²]"""
+        """Flux size over candidates x thicknesses x temperature differences. [W/m²]"""
         lt = positive("thicknesses", thicknesses, "m").reshape(-1, 1)
         dt = finite("delta_ts", delta_ts, "K").reshape(1, -1)
         return self.flux(lt, dt)
@@ -369,7 +370,8 @@ class WallStudy:
         """One row per candidate at its design point, with units and sources.
 
         Columns: sized thickness, total thickness [m]; effective k [W/(m·K)];
-        U-value [W/(m²·K)]; heat flux [W/m²]; heat flow [W]; mass and cost per
+        U-value [W/(m²·K)]; heat flux [W/m²] and heat flow [W] (sizes, with
+        ``heat_flow_direction`` saying which way, seen from the inside); mass and cost per
         area; the face temperatures of the wall [K]; whether every layer's
         face temperatures lie within its service range, and why not; whether
         the budget and thickness limit are met; and the sources of k and ρ.
@@ -382,7 +384,7 @@ class WallStudy:
             names, ls, ks = self._profile(i, max(float(lt[i]), 1e-9))
             t = conduction.wall_temperatures(ls, ks, self.t_inside, self.t_outside, self.r_si, self.r_se)
             r_total = self.r_si + self.r_se + float(np.sum(ls / ks))
-            q = self.delta_t / r_total
+            q = abs(self.delta_t) / r_total
             problems = []
             for j, mat in enumerate(names):
                 lo, hi = sorted((t[j], t[j + 1]))
@@ -403,13 +405,15 @@ class WallStudy:
                 "u_value": 1.0 / r_total,
                 "heat_flux": q,
                 "heat_flow": q * self.area,
+                "heat_flow_direction": "out through the wall" if self.delta_t > 0 else (
+                    "in through the wall" if self.delta_t < 0 else "none"),
                 "mass_per_area": float(a["mass_fixed"][i] + a["density"][i] * lt[i]),
                 "cost_per_area": float(a["cost_fixed"][i] + a["cost_per_volume"][i] * lt[i]),
                 "t_surface_inside": float(t[0]),
                 "t_surface_outside": float(t[-1]),
                 "within_service_limits": not problems,
                 "service_problems": "; ".join(problems),
-                "meets_budget": True if self.budget is None else bool(abs(q) <= float(self.max_flux()) * (1 + 1e-9)),
+                "meets_budget": True if self.budget is None else bool(q <= float(self.max_flux()) * (1 + 1e-9)),
                 "within_max_thickness": True if self.max_thickness is None else bool(lt[i] <= self.max_thickness),
                 "conductivity_source": m.loc[sized, "conductivity_source"],
                 "density_source": m.loc[sized, "density_source"],
@@ -431,8 +435,10 @@ def _cost_per_volume(row) -> float:
 
 
 def _currency(materials: pd.DataFrame) -> str:
-    cur = sorted(set(materials.get("currency", pd.Series(["EUR"])).dropna()))
-    return cur[0] if len(cur) == 1 else "/".join(cur)
+    """The currency code of the table's costs (codes joined by "/" if they differ)."""
+    codes = materials.get("currency", pd.Series(["EUR"])).dropna().astype(str).str.strip()
+    cur = sorted({c for c in codes if c})
+    return "/".join(cur) if cur else "EUR"
 
 
 def candidates_from(items: Iterable[str | Candidate]) -> list[Candidate]:

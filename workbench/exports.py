@@ -1,0 +1,196 @@
+"""Take the result away: CSV for spreadsheets, JSON for machines.
+
+CSV (:func:`frame_to_csv`, :func:`results_csv`, :func:`ranking_csv`) has the
+unit of every quantity in its header, in the chosen display system. Text cells
+that a spreadsheet would run as a formula (starting with ``=``, ``+``, ``-``,
+``@``, a tab or a carriage return) are prefixed with a single quote; numbers
+stay numbers, so a real negative value is written as ``-5.2``, not as text.
+
+JSON (:func:`evaluation_to_json`) keeps every value in SI at full precision,
+with a ``units`` map per table, the scenario hash and the tool version.
+"""
+
+from __future__ import annotations
+
+import csv
+import io
+import json
+import math
+import os
+from pathlib import Path
+from typing import Any
+
+import numpy as np
+import pandas as pd
+
+from workbench.report import Evaluation, _currency, display_frame
+from workbench.scenario import _atomic_write, scenario_to_text
+
+__all__ = [
+    "FORMULA_PREFIXES",
+    "neutralise_cell",
+    "frame_to_csv",
+    "results_csv",
+    "ranking_csv",
+    "evaluation_to_dict",
+    "evaluation_to_json",
+    "write_text",
+]
+
+FORMULA_PREFIXES = ("=", "+", "-", "@", "\t", "\r")
+"""First characters that make a spreadsheet treat a text cell as a formula."""
+
+
+def neutralise_cell(value: Any) -> Any:
+    """A CSV cell safe to open in a spreadsheet.
+
+    Text starting with one of :data:`FORMULA_PREFIXES` gets a leading single
+    quote; numbers (including negative ones) and other text are unchanged.
+
+    Examples
+    --------
+    >>> neutralise_cell("=HYPERLINK(\\"http://x\\")")
+    '\\'=HYPERLINK("http://x")'
+    >>> neutralise_cell(-5.2), neutralise_cell("PIR 32"), neutralise_cell("-")
+    (-5.2, 'PIR 32', "'-")
+    """
+    if isinstance(value, str) and value.startswith(FORMULA_PREFIXES):
+        return "'" + value
+    return value
+
+
+def _cell(v: Any) -> Any:
+    if isinstance(v, (bool, np.bool_)):
+        return "yes" if v else "no"
+    if isinstance(v, (int, np.integer)):
+        return int(v)
+    if isinstance(v, (float, np.floating)):
+        f = float(v)
+        return "" if math.isnan(f) else repr(f)
+    if v is None or v is pd.NA:
+        return ""
+    return neutralise_cell(str(v))
+
+
+def frame_to_csv(frame: pd.DataFrame, index: bool = True) -> str:
+    """CSV text of a table, every text cell neutralised (see :func:`neutralise_cell`).
+
+    Numbers are written with full precision (``repr``); NaN as an empty cell.
+    """
+    buf = io.StringIO()
+    w = csv.writer(buf, lineterminator="\n")
+    cols = list(frame.columns)
+    w.writerow([_cell(frame.index.name or "")] * index + [_cell(c) for c in cols])
+    for idx, row in zip(frame.index, frame.itertuples(index=False), strict=True):
+        w.writerow([_cell(idx)] * index + [_cell(v) for v in row])
+    return buf.getvalue()
+
+
+def results_csv(ev: Evaluation, system: str | None = None) -> str:
+    """The results table as CSV, units in the headers (``system``: default the scenario's)."""
+    shown = display_frame(ev.results, ev.kind, system or ev.system, text=False)
+    return frame_to_csv(shown)
+
+
+def ranking_csv(ev: Evaluation, system: str | None = None) -> str:
+    """The ranking table as CSV (best first), units in the headers."""
+    rk = ev.ranking.sort_values(["rank"], na_position="last")
+    shown = display_frame(rk, ev.kind, system or ev.system, results=ev.results, text=False)
+    return frame_to_csv(shown)
+
+
+def _json_value(v: Any) -> Any:
+    if isinstance(v, (bool, np.bool_)):
+        return bool(v)
+    if isinstance(v, (int, np.integer)):
+        return int(v)
+    if isinstance(v, (float, np.floating)):
+        f = float(v)
+        return None if not math.isfinite(f) else f
+    if v is None or v is pd.NA:
+        return None
+    if isinstance(v, (tuple, list)):
+        return [_json_value(x) for x in v]
+    return str(v)
+
+
+def _records(frame: pd.DataFrame, index_name: str = "candidate") -> list[dict[str, Any]]:
+    out = []
+    for idx, row in frame.iterrows():
+        rec = {index_name: _json_value(idx)}
+        rec.update({str(k): _json_value(v) for k, v in row.items()})
+        out.append(rec)
+    return out
+
+
+def _units_map(frame: pd.DataFrame, kind_columns, results: pd.DataFrame) -> dict[str, str]:
+    from workbench import units
+
+    out = {}
+    attrs = frame.attrs.get("units", {})
+    for col in frame.columns:
+        qkind = kind_columns.get(col)
+        if qkind is not None and units.check_kind(qkind).is_cost:
+            out[col] = units.display_unit(qkind, "SI", currency=_currency(results))
+        elif col in attrs:
+            out[col] = attrs[col]
+        elif qkind is not None:
+            out[col] = units.check_kind(qkind).si_unit
+    return out
+
+
+def evaluation_to_dict(ev: Evaluation) -> dict[str, Any]:
+    """Plain data for JSON: SI values, a units map per table, provenance."""
+    s = ev.scenario
+    return {
+        "format": "heatpath-results",
+        "version": 1,
+        "tool_version": ev.tool_version,
+        "scenario_hash": ev.scenario_hash,
+        "kind": ev.kind.name,
+        "title": s.title,
+        "units_note": "all values in SI; 'units' maps each column to its SI unit",
+        "results": {
+            "units": _units_map(ev.results, ev.kind.column_kinds, ev.results),
+            "rows": _records(ev.results),
+        },
+        "ranking": {
+            "units": _units_map(ev.ranking, ev.kind.column_kinds, ev.results),
+            "criteria": [
+                {"quantity": c.quantity, "direction": c.direction, "weight": c.weight}
+                for c in ev.criteria
+            ],
+            "constraints": [
+                {"quantity": c.quantity, "bound": c.bound, "limit": c.limit} for c in s.constraints
+            ],
+            "rows": _records(ev.ranking.sort_values(["rank"], na_position="last")),
+        },
+        "decision": None
+        if s.decision is None
+        else {
+            "chosen": s.decision.chosen,
+            "rationale": s.decision.rationale,
+            "decided_by": s.decision.decided_by,
+            "date": s.decision.date,
+        },
+        "assumptions": list(ev.assumptions),
+        "cautions": list(ev.cautions),
+        "warnings": list(ev.warnings),
+        "sources": _records(ev.sources.set_index("key"), "key") if len(ev.sources) else [],
+        "scenario": scenario_to_text(s, header=False),
+    }
+
+
+def evaluation_to_json(ev: Evaluation, indent: int = 2) -> str:
+    """JSON text of :func:`evaluation_to_dict` (NaN and infinity become null)."""
+    return (
+        json.dumps(evaluation_to_dict(ev), indent=indent, ensure_ascii=False, allow_nan=False)
+        + "\n"
+    )
+
+
+def write_text(text: str, path: str | os.PathLike, overwrite: bool = False) -> Path:
+    """Write an export atomically; an existing file needs ``overwrite=True``."""
+    path = Path(path)
+    _atomic_write(path, text, overwrite=overwrite, backup=False)
+    return path
