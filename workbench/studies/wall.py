@@ -18,10 +18,17 @@ from dataclasses import dataclass, field
 import numpy as np
 import pandas as pd
 
-from workbench import conduction
+from workbench import conduction, ranking, uncertainty
 from workbench._checks import ValidityWarning, finite, nonnegative, positive
 
-__all__ = ["Layer", "Candidate", "HeatBudget", "WallStudy", "WALL_ASSUMPTIONS"]
+__all__ = ["Layer", "Candidate", "HeatBudget", "WallStudy", "WALL_ASSUMPTIONS", "WALL_CRITERIA"]
+
+#: Default criteria of the wall ranking: result column -> direction.
+WALL_CRITERIA = {
+    "total_thickness": "minimise",
+    "mass_per_area": "minimise",
+    "cost_per_area": "minimise",
+}
 
 #: Assumptions every wall result rests on (shown in reports and the workbench).
 WALL_ASSUMPTIONS = (
@@ -428,6 +435,200 @@ class WallStudy:
         frame.attrs["assumptions"] = WALL_ASSUMPTIONS
         return frame
 
+
+    # -- trade-offs (the ranking engine applied to this study) ------------------
+    def _criteria(self, criteria) -> tuple[list[str], list[str], pd.DataFrame]:
+        res = self.results()
+        crit = dict(WALL_CRITERIA if criteria is None else criteria)
+        unknown = sorted(set(crit) - set(res.columns))
+        if unknown:
+            raise ValueError(f"criteria: unknown result columns {unknown}; valid: {list(res.columns)}")
+        bad = sorted({d for d in crit.values()} - {"minimise", "maximise"})
+        if bad:
+            raise ValueError(f"criteria: unknown directions {bad}; valid: ['minimise', 'maximise']")
+        return list(crit), list(crit.values()), res
+
+    def ranking(
+        self,
+        criteria: dict[str, str] | None = None,
+        weights: Sequence[float] | None = None,
+        max_mass_per_area: float | None = None,
+        max_cost_per_area: float | None = None,
+        resolution: int = 20,
+    ) -> pd.DataFrame:
+        """Rank the candidates on several criteria at once.
+
+        Hard limits first (service temperatures of every layer, the thickness
+        limit, the heat budget, and the optional mass and cost limits): a
+        candidate that fails one is excluded, with the reason. Among the rest:
+        the Pareto front (``pareto``), the weighted score (min–max normalised
+        per criterion over the feasible candidates, 0 = best, weights
+        normalised to sum 1) and its ``rank``, and the rank stability over the
+        weight simplex at ``resolution`` steps per axis (``share_first``,
+        ``best_rank``, ``worst_rank``).
+
+        Parameters
+        ----------
+        criteria : dict, optional
+            Result column -> ``"minimise"`` or ``"maximise"``;
+            :data:`WALL_CRITERIA` by default.
+        weights : sequence of float, optional
+            One per criterion (equal by default).
+        max_mass_per_area, max_cost_per_area : float, optional
+            Hard limits. [kg/m²], [currency/m²]
+
+        Returns
+        -------
+        DataFrame
+            Indexed by candidate; units in ``attrs["units"]``.
+        """
+        names, dirs, res = self._criteria(criteria)
+        w = np.ones(len(names)) if weights is None else nonnegative("weights", weights, "-")
+        if w.shape != (len(names),) or w.sum() <= 0:
+            raise ValueError(f"weights: need {len(names)} non-negative numbers, not all zero")
+        limits = [ranking.Limit("heat_budget", (~res["meets_budget"]).to_numpy(float), 0.5, "max")]
+        hard = {"limits": limits}
+        if self.max_thickness is not None:
+            hard.update(thickness=res["sized_thickness"].to_numpy(float), max_thickness=self.max_thickness)
+        if max_mass_per_area is not None:
+            hard.update(mass_per_area=res["mass_per_area"].to_numpy(float), max_mass_per_area=max_mass_per_area)
+        if max_cost_per_area is not None:
+            hard.update(cost_per_area=res["cost_per_area"].to_numpy(float), max_cost_per_area=max_cost_per_area)
+        screen = ranking.screen_candidates(**hard)
+        keep = screen.keep & res["within_service_limits"].to_numpy(bool)
+        reasons = []
+        for i, name in enumerate(res.index):
+            why = [r for r in (screen.reasons[i] if screen.reasons[i] else "").split("; ") if r]
+            why = ["heat budget not met" if r.startswith("heat_budget") else r for r in why]
+            if res.loc[name, "service_problems"]:
+                why.append(res.loc[name, "service_problems"])
+            reasons.append("; ".join(why))
+        values = res[names].to_numpy(float)
+        finite_rows = np.all(np.isfinite(values), axis=1)
+        for i in np.flatnonzero(keep & ~finite_rows):
+            reasons[i] = "; ".join(filter(None, [reasons[i], "a criterion has no value (e.g. no cost)"]))
+        keep &= finite_rows
+        table = res[names].copy()
+        table["feasible"] = keep
+        table["excluded_because"] = reasons
+        n = len(table)
+        pareto = np.zeros(n, bool)
+        score = np.full(n, np.nan)
+        rank = np.full(n, np.nan)
+        share = np.full(n, np.nan)
+        best = np.full(n, np.nan)
+        worst = np.full(n, np.nan)
+        idx = np.flatnonzero(keep)
+        if idx.size:
+            v = values[idx]
+            pareto[idx] = ranking.pareto_front(ranking.oriented(v, dirs))
+            sc = ranking.weighted_scores(v, dirs, w / w.sum())
+            score[idx] = sc
+            rank[idx] = 1 + np.sum(sc[None, :] < sc[:, None] - 1e-12, axis=1)
+            stab = ranking.rank_stability(v, dirs, resolution=resolution)
+            share[idx], best[idx], worst[idx] = stab.share_first, stab.best_rank, stab.worst_rank
+        table["pareto"] = pareto
+        table["score"] = score
+        table["rank"] = rank
+        table["share_first"] = share
+        table["best_rank"] = best
+        table["worst_rank"] = worst
+        units = res.attrs["units"]
+        table.attrs["units"] = {**{c: units.get(c, "-") for c in names}, "score": "-", "share_first": "-"}
+        table.attrs["criteria"] = dict(zip(names, dirs, strict=True))
+        table.attrs["weights"] = tuple(float(x) for x in w / w.sum())
+        table.attrs["normalisation"] = (
+            "min-max over the feasible candidates per criterion, direction-aware, 0 = best"
+        )
+        return table.sort_values(["feasible", "score"], ascending=[False, True])
+
+    def front(self, criteria: dict[str, str] | None = None) -> pd.DataFrame:
+        """The feasible non-dominated candidates (see :meth:`ranking`)."""
+        table = self.ranking(criteria)
+        return table[table["pareto"]]
+
+    def material_indices(self) -> pd.DataFrame:
+        """Ashby's material indices of each sized material for a wall of given R.
+
+        For a wall of prescribed thermal resistance R: least thickness
+        minimises k, least mass minimises ρ·k, least cost minimises c_m·ρ·k
+        (L = R·k, m/A = ρ·R·k, C/A = c_m·ρ·R·k). Ashby, *Materials Selection
+        in Mechanical Design*, 4th ed. (``ashby-2011``).
+        """
+        m = self.materials
+        ids = [c.sized_material for c in self.candidates]
+        idx = ranking.material_indices(
+            self._k(), m.loc[ids, "density"].to_numpy(float), m.loc[ids, "cost_per_mass"].to_numpy(float)
+        )
+        frame = pd.DataFrame(
+            {"thickness_index": idx.thickness_index, "mass_index": idx.mass_index,
+             "cost_index": idx.cost_index},
+            index=pd.Index(self.names, name="candidate"),
+        )
+        frame.attrs["units"] = {"thickness_index": "W/(m·K)", "mass_index": "kg·W/(m⁴·K)",
+                                "cost_index": f"{_currency(m)}·W/(m⁴·K)"}
+        return frame
+
+    def uncertainty(self, n_samples: int = 2000, seed: int = 0, tolerance_override=None,
+                    progress=None, cancel=None) -> pd.DataFrame:
+        """Monte Carlo over the sized layers' conductivity tolerances, all candidates at once.
+
+        Each sized material's conductivity is drawn from a normal distribution
+        (truncated to stay positive) whose standard deviation is its table
+        tolerance, a relative half-range, divided by √3 — the rectangular
+        distribution of GUM (JCGM 100:2008, clause 4.3.7; ``jcgm100-2008``);
+        propagation by Monte Carlo per JCGM 101:2008 (``jcgm101-2008``).
+        Criteria per sample: the heat flux at the nominal design thickness, and
+        the thickness, mass and cost needed to meet the budget (with a budget).
+
+        Returns
+        -------
+        DataFrame
+            P10/P50/P90 of each criterion, the probability of meeting the heat
+            budget at the nominal design thickness with its standard error, and
+            the probability of being the thinnest / lightest / cheapest;
+            ``attrs["n_samples"]``, ``attrs["seed"]``, ``attrs["cancelled"]``.
+        """
+        m = self.materials
+        ids = [c.sized_material for c in self.candidates]
+        half_range = m.loc[ids, "conductivity_tolerance"].to_numpy(float)
+        half_range = np.where(np.isfinite(half_range), half_range, 0.0)
+        if tolerance_override is not None:
+            half_range = nonnegative("tolerance_override", np.broadcast_to(tolerance_override, half_range.shape), "-")
+        sigma = half_range / np.sqrt(3.0)
+        a = self._arrays
+        l_design = self.design_thickness()
+        r_other = self.other_resistance
+        dt = abs(self.delta_t)
+        sizing = self.budget is not None and dt > 0
+        q_max = float(self.max_flux()) if self.budget is not None else None
+
+        def model(samples):
+            k = samples["k"]
+            q = dt / (r_other + l_design / k)
+            lt = np.maximum(0.0, k * (dt / q_max - r_other)) if sizing else np.broadcast_to(l_design, k.shape)
+            return np.stack([q, lt + a["l_fixed"], a["mass_fixed"] + a["density"] * lt,
+                             a["cost_fixed"] + a["cost_per_volume"] * lt], axis=-1)
+
+        mc = uncertainty.monte_carlo(
+            model, {"k": self._k()}, {"k": sigma}, n_samples=n_samples, rng=seed,
+            limit=q_max, limit_criterion=0, limit_direction="max",
+            progress=progress, cancel=cancel,
+        )
+        crit = ["heat_flux", "total_thickness", "mass_per_area", "cost_per_area"]
+        frame = pd.DataFrame(index=pd.Index(self.names, name="candidate"))
+        for j, c in enumerate(crit):
+            frame[f"{c}_p10"], frame[f"{c}_p50"], frame[f"{c}_p90"] = mc.p10[:, j], mc.p50[:, j], mc.p90[:, j]
+        if mc.prob_meets is not None:
+            frame["p_meets_budget"] = mc.prob_meets
+            frame["p_meets_budget_se"] = mc.prob_meets_se
+        for j, word in ((1, "thinnest"), (2, "lightest"), (3, "cheapest")):
+            frame[f"p_{word}"] = mc.prob_best[:, j]
+        units = self.results().attrs["units"]
+        frame.attrs["units"] = {f"{c}_{p}": units[c] for c in crit for p in ("p10", "p50", "p90")}
+        frame.attrs.update(n_samples=mc.n_samples, seed=seed, cancelled=mc.cancelled,
+                           distribution="normal, sigma = table half-range / sqrt(3), truncated at 0")
+        return frame
 
 def _cost_per_volume(row) -> float:
     """Cost per m³ of a material row [currency/m³] (NaN where no cost is known)."""
