@@ -17,6 +17,7 @@ __all__ = [
     "nonnegative",
     "in_range",
     "broadcast",
+    "broadcast_shape",
     "scalar_or_array",
 ]
 
@@ -79,13 +80,19 @@ def _worst(arr: np.ndarray, bad: np.ndarray) -> str:
     return f"{float(np.asarray(arr)[bad].flat[0]):g}"
 
 
-def broadcast(**named: np.ndarray) -> tuple[np.ndarray, ...]:
-    """Broadcast the named arrays together; a shape mismatch names the arguments."""
+def broadcast_shape(**named) -> tuple[int, ...]:
+    """Broadcast shape of the named arrays; a mismatch names the arguments and their shapes."""
     try:
-        return tuple(np.broadcast_arrays(*named.values()))
+        return np.broadcast_shapes(*(np.shape(v) for v in named.values()))
     except ValueError:
         shapes = ", ".join(f"{k} {np.shape(v)}" for k, v in named.items())
         raise ValueError(f"shapes do not broadcast: {shapes}") from None
+
+
+def broadcast(**named: np.ndarray) -> tuple[np.ndarray, ...]:
+    """Broadcast the named arrays together; a shape mismatch names the arguments."""
+    shape = broadcast_shape(**named)
+    return tuple(np.broadcast_to(v, shape) for v in named.values())
 
 
 def scalar_or_array(x):

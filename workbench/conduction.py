@@ -19,6 +19,7 @@ import numpy as np
 from workbench._checks import (
     ValidityWarning,
     broadcast,
+    broadcast_shape,
     finite,
     nonnegative,
     positive,
@@ -80,23 +81,14 @@ def heat_flux(k: ArrayLike, thickness: ArrayLike, delta_t: ArrayLike):
     k_ = positive("k", k, "W/(m·K)")
     l_ = positive("thickness", thickness, "m")
     dt = finite("delta_t", delta_t, "K")
-    _shape(k=k_, thickness=l_, delta_t=dt)
+    broadcast_shape(k=k_, thickness=l_, delta_t=dt)
     return scalar_or_array(k_ * dt / l_)
-
-
-def _shape(**arrays: np.ndarray) -> tuple[int, ...]:
-    """Broadcast shape of the named arrays, or ValueError naming them."""
-    try:
-        return np.broadcast_shapes(*(np.shape(a) for a in arrays.values()))
-    except ValueError:
-        shapes = ", ".join(f"{k} {np.shape(v)}" for k, v in arrays.items())
-        raise ValueError(f"shapes do not broadcast: {shapes}") from None
 
 
 def _layer_resistances(thicknesses, conductivities) -> np.ndarray:
     l_ = positive("thicknesses", thicknesses, "m")
     k_ = positive("conductivities", conductivities, "W/(m·K)")
-    _shape(thicknesses=l_, conductivities=k_)
+    broadcast_shape(thicknesses=l_, conductivities=k_)
     return np.atleast_1d(l_ / k_)
 
 
@@ -140,7 +132,7 @@ def series_resistance(
     rsi = nonnegative("r_si", r_si, "m²·K/W")
     rse = nonnegative("r_se", r_se, "m²·K/W")
     total = r_layers.sum(axis=-1)
-    _shape(layers=total, r_si=rsi, r_se=rse)
+    broadcast_shape(layers=total, r_si=rsi, r_se=rse)
     return scalar_or_array(total + rsi + rse)
 
 
@@ -226,7 +218,7 @@ def wall_temperatures(
     rsi = nonnegative("r_si", r_si, "m²·K/W")
     rse = nonnegative("r_se", r_se, "m²·K/W")
     r_sum = r_layers.sum(axis=-1)
-    lead = _shape(layers=r_sum, t_inside=ti, t_outside=te, r_si=rsi, r_se=rse)
+    lead = broadcast_shape(layers=r_sum, t_inside=ti, t_outside=te, r_si=rsi, r_se=rse)
     q = (ti - te) / (r_sum + rsi + rse)
     q = np.broadcast_to(q, lead)[..., None]
     t_surface_in = np.broadcast_to(ti - q[..., 0] * rsi, lead)[..., None]
@@ -280,7 +272,7 @@ def required_thickness(
     dt = np.abs(finite("delta_t", delta_t, "K"))
     q = positive("max_flux", max_flux, "W/m²")
     ro = nonnegative("other_resistance", other_resistance, "m²·K/W")
-    _shape(k=k_, delta_t=dt, max_flux=q, other_resistance=ro)
+    broadcast_shape(k=k_, delta_t=dt, max_flux=q, other_resistance=ro)
     return scalar_or_array(np.maximum(0.0, k_ * (dt / q - ro)))
 
 
@@ -314,7 +306,7 @@ def mass_per_area(densities: ArrayLike, thicknesses: ArrayLike):
     """
     rho = positive("densities", densities, "kg/m³")
     l_ = positive("thicknesses", thicknesses, "m")
-    _shape(densities=rho, thicknesses=l_)
+    broadcast_shape(densities=rho, thicknesses=l_)
     return scalar_or_array(np.atleast_1d(rho * l_).sum(axis=-1))
 
 
@@ -373,7 +365,7 @@ def cost_per_area(
         rho = positive("densities", densities, "kg/m³")
     else:
         rho = np.ones(1)
-    _shape(unit_costs=c, thicknesses=l_, densities=rho, basis=per_kg)
+    broadcast_shape(unit_costs=c, thicknesses=l_, densities=rho, basis=per_kg)
     factor = per_kg * rho + (1.0 - per_kg)
     return scalar_or_array(np.atleast_1d(c * factor * l_).sum(axis=-1))
 
@@ -456,7 +448,7 @@ def mean_conductivity(
     tt, kk = _check_table(temperatures, conductivities)
     a = finite("t1", t1, "K")
     b = finite("t2", t2, "K")
-    _shape(t1=a, t2=b)
+    broadcast_shape(t1=a, t2=b)
     lo, hi = np.minimum(a, b), np.maximum(a, b)
     if np.any(lo < tt[0] - 1e-9) or np.any(hi > tt[-1] + 1e-9):
         warnings.warn(
@@ -630,7 +622,7 @@ def solve_wall(
         raise ValueError("layers: a wall needs at least one layer")
     ti = finite("t_inside", t_inside, "K")
     te = finite("t_outside", t_outside, "K")
-    shape = _shape(t_inside=ti, t_outside=te)
+    shape = broadcast_shape(t_inside=ti, t_outside=te)
     ti, te = broadcast(t_inside=np.broadcast_to(ti, shape), t_outside=np.broadcast_to(te, shape))
     n = len(layers)
     # initial guess: linear temperature profile between the two air temperatures
