@@ -1,0 +1,403 @@
+"""Headless tests of the interactive workbench (workbench.widgets).
+
+The workbench is built and driven programmatically, as a user would in the
+notebook: sliders moved, text typed with units, the display system switched.
+Expected numbers are computed here independently of the widgets, from the
+table values and the published relations named beside each check:
+
+* Fourier's law for a plane wall with surface resistances in series,
+  q = ΔT / (Rsi + L/k + Rse), with the conventional ISO 6946:2017 Table 7
+  values Rsi = 0.13 m²·K/W and Rse = 0.04 m²·K/W (horizontal heat flow).
+* Unit factors from NIST SP 811 (2008), Appendix B.8/B.9:
+  1 in = 0.0254 m (exact); 1 Btu_IT/(h·ft²) = 3.154 591 W/m²; °F = °C·9/5 + 32.
+* The non-dominated set is checked against the ``paretoset`` package (PyPI),
+  used only as an oracle.
+"""
+
+from __future__ import annotations
+
+import threading
+
+import numpy as np
+import plotly.graph_objects as go
+import pytest
+from numpy.testing import assert_allclose
+
+from workbench.materials import load_materials
+from workbench.studies.wall import Candidate, HeatBudget, Layer, WallStudy
+from workbench.widgets import Workbench, fine_sweep, sync_figure_state
+from workbench.widgets.charts import EACH_TRACE_LIMIT
+from workbench.widgets.runner import Cancelled, TaskRunner
+from workbench.widgets.style import ACCENT
+
+R_SI, R_SE = 0.13, 0.04  # ISO 6946:2017 Table 7, horizontal heat flow
+W_PER_M2_PER_BTU_H_FT2 = 3.154591  # NIST SP 811 (2008) App. B.8: Btu_IT/(h·ft²) -> W/m²
+INCH = 0.0254  # NIST SP 811 (2008) App. B.8, exact
+
+
+@pytest.fixture(scope="module")
+def materials():
+    return load_materials()
+
+
+@pytest.fixture()
+def wb():
+    return Workbench()
+
+
+def _line(wb, label):
+    """The flux chart's trace for one candidate (each-trace mode)."""
+    return next(t for t in wb.flux_chart.fig.data if t.name == label)
+
+
+def _fourier(k, thickness, delta_t):
+    return abs(delta_t) / (R_SI + thickness / k + R_SE)
+
+
+def test_default_workbench_is_labelled_demo_and_shows_data(wb):
+    assert "DEMO" in wb.header.value and "invented" in wb.header.value
+    assert "not a substitute for testing, local codes or licensed" in wb.cautions.value
+    for chart in (wb.flux_chart, wb.req_chart, wb.trade_chart, wb.prof_chart):
+        values = [t.x if isinstance(t, go.Bar) else t.y for t in chart.fig.data]
+        ys = [np.asarray(v, float) for v in values if v is not None and len(v)]
+        assert ys and all(np.isfinite(y).any() for y in ys)
+        assert chart.fig.layout.xaxis.title.text and "[" in chart.fig.layout.xaxis.title.text
+    assert wb.table.html.value.count("<tr") == 1 + len(wb.study.candidates)
+    assert wb.status.value == ""
+
+
+def test_flux_chart_follows_fouriers_law(wb, materials):
+    # PIR has no k(T) curve in the tables, so the table k applies at every thickness
+    s = wb.study
+    i = s.names.index("pir_32")
+    line = _line(wb, wb.labels[i])
+    x_m = np.asarray(line.x) / 1000.0  # chart in mm
+    k = materials.loc["pir_32", "conductivity"]
+    assert_allclose(np.asarray(line.y), _fourier(k, x_m, s.delta_t), rtol=1e-9)
+    assert wb.flux_chart.fig.layout.yaxis.type == "log"
+    assert "W/m²" in wb.flux_chart.fig.layout.yaxis.title.text
+
+
+def test_thickness_slider_updates_figures_in_place(wb, materials):
+    fig = wb.flux_chart.fig
+    uids = [t.uid for t in fig.data]
+    now = fig.data[-1]
+    before = np.asarray(now.y).copy()
+    wb.s_thick.value = 25.0
+    assert fig is wb.flux_chart.fig and [t.uid for t in fig.data] == uids  # not rebuilt
+    after = np.asarray(now.y)
+    assert not np.allclose(before, after)
+    i = wb.study.names.index("pir_32")
+    k = materials.loc["pir_32", "conductivity"]
+    assert_allclose(after[i], _fourier(k, 0.025, wb.study.delta_t), rtol=1e-9)
+    assert_allclose(np.asarray(now.x), 25.0)
+    assert "25 mm" in wb.prof_chart.fig.layout.title.text
+    assert wb.table.html.value.count("<tr") == 1 + len(wb.study.candidates)
+
+
+def test_delta_t_slider_moves_inside_temperature_and_scales_flux(wb, materials):
+    i = wb.study.names.index("pir_32")
+    wb.s_dt.value = 30.0
+    assert wb.study.delta_t == pytest.approx(-30.0)  # cabinet colder than the shop
+    assert wb.f_inside.text.value == "-5.0 °C"  # outside 25 °C minus 30 K
+    k = materials.loc["pir_32", "conductivity"]
+    line = _line(wb, wb.labels[i])
+    assert_allclose(np.asarray(line.y), _fourier(k, np.asarray(line.x) / 1000, 30.0), rtol=1e-9)
+    # required thickness for 6 W/m²: L = k (ΔT/q − Rsi − Rse)
+    bar = wb.req_chart.fig.data[0]
+    j = list(bar.y).index(wb.labels[i])
+    assert bar.x[j] == pytest.approx(1000 * k * (30.0 / 6.0 - R_SI - R_SE), rel=1e-9)
+
+
+def test_inputs_accept_units(wb):
+    msgs = wb.set_inputs(max_thickness="1 in", t_outside="77 °F", area="2 ft^2")
+    assert msgs == {"max_thickness": "", "t_outside": "", "area": ""}
+    assert wb.study.max_thickness == pytest.approx(INCH)
+    assert wb.study.t_outside == pytest.approx(298.15)  # 77 °F = 25 °C
+    assert wb.study.area == pytest.approx(2 * 0.3048**2)
+    note = wb.req_chart.fig.layout.annotations[0]
+    assert note.text == "max 25.4 mm"
+    assert wb.req_chart.fig.layout.shapes[0].x0 == pytest.approx(25.4)
+
+
+@pytest.mark.parametrize(
+    ("field", "text", "words"),
+    [
+        ("area", "25 kg", ["area", "m²"]),
+        ("max_thickness", "thick", ["max thickness", "mm"]),
+        ("max_thickness", "-5 mm", ["max_thickness", "m"]),
+        ("t_inside", "-300 °C", ["inside temperature", "absolute zero"]),
+        ("budget", "5 W", ["heat budget", "W/m²"]),
+        ("area", "", ["area", "no value"]),
+        ("max_thickness", "nan mm", ["max thickness", "finite"]),
+    ],
+)
+def test_bad_input_shows_message_and_keeps_last_good_result(wb, field, text, words):
+    fig = wb.flux_chart.fig
+    before_y = [np.asarray(t.y).copy() for t in fig.data]
+    before_state = (wb.study.area, wb.study.max_thickness, wb.study.t_inside, wb.study.budget)
+    msg = wb.set_inputs(**{field: text})[field]  # must not raise
+    assert msg, "a bad value must show a message"
+    for w in words:
+        assert w in msg
+    box = {"area": wb.f_area, "max_thickness": wb.f_max, "t_inside": wb.f_inside, "budget": wb.f_budget}[field]
+    assert "hw-msg" in box.message.value
+    assert (wb.study.area, wb.study.max_thickness, wb.study.t_inside, wb.study.budget) == before_state
+    for old, tr in zip(before_y, fig.data, strict=True):
+        assert_allclose(np.asarray(tr.y), old)
+    # a good value afterwards clears the message
+    good = {"area": "1 m²", "max_thickness": "50 mm", "t_inside": "4 °C", "budget": "7 W/m²"}[field]
+    assert wb.set_inputs(**{field: good})[field] == ""
+    assert box.message.value == ""
+
+
+def test_us_customary_switch_relabels_every_number_and_axis(wb):
+    q_si = np.asarray(wb.flux_chart.fig.data[0].y).copy()
+    x_si = np.asarray(wb.flux_chart.fig.data[0].x).copy()
+    wb.system_toggle.value = "US"
+    f = wb.flux_chart.fig
+    assert "[Btu/(h·ft²)]" in f.layout.yaxis.title.text and "[in]" in f.layout.xaxis.title.text
+    assert_allclose(np.asarray(f.data[0].y), q_si / W_PER_M2_PER_BTU_H_FT2, rtol=1e-6)
+    assert_allclose(np.asarray(f.data[0].x), x_si / 25.4, rtol=1e-12)
+    assert "[in]" in wb.req_chart.fig.layout.xaxis.title.text
+    assert "[lb/ft²]" in wb.trade_chart.fig.layout.yaxis.title.text
+    assert "[°F]" in wb.prof_chart.fig.layout.yaxis.title.text
+    assert "[in]" in wb.table.html.value and "[°F]" in wb.table.html.value
+    assert wb.f_inside.text.value == "37.4 °F"  # 3 °C
+    assert wb.f_max.text.value == "2.362 in"  # 60 mm
+    assert wb.s_thick.description == "Thickness [in]" and wb.s_dt.description == "ΔT [°F]"
+    assert wb.s_dt.value == pytest.approx(22 * 9 / 5)
+    # typing in US units while the US display is on
+    assert wb.set_inputs(max_thickness="3") == {"max_thickness": ""}  # bare number: inches
+    assert wb.study.max_thickness == pytest.approx(3 * INCH)
+    wb.system_toggle.value = "SI"
+    assert_allclose(np.asarray(f.data[0].y), q_si, rtol=1e-9)
+
+
+def test_budget_kind_switch_keeps_the_same_budget(wb):
+    req = wb.view.required.copy()
+    wb.budget_kind.value = "power"
+    assert wb.f_budget.text.value == "3.6 W"  # 6 W/m² over the demo's 0.6 m²
+    assert_allclose(wb.view.required, req, rtol=1e-9)
+    wb.budget_kind.value = "u_value"
+    assert wb.study.budget.kind == "u_value"
+    assert wb.study.budget.value == pytest.approx(6.0 / 22.0)
+    assert_allclose(wb.view.required, req, rtol=1e-9)
+    assert wb.set_inputs(budget="0.2 W/(m²·K)") == {"budget": ""}
+    assert np.all(wb.view.required > req)
+
+
+def test_chosen_candidate_is_highlighted_the_same_way_everywhere(wb):
+    i = wb.study.names.index("xps_35")
+    wb.highlight.value = i
+    label = wb.labels[i]
+    flux = wb.flux_chart.fig
+    high = next(t for t in flux.data if t.name == f"chosen: {label}")
+    assert high.line.color == ACCENT
+    assert_allclose(np.asarray(high.y), np.asarray(_line(wb, label).y))
+    bar = wb.req_chart.fig.data[0]
+    j = list(bar.y).index(label)
+    assert bar.marker.color[j] == ACCENT and sum(c == ACCENT for c in bar.marker.color) == 1
+    pts, ring = wb.trade_chart.fig.data[1], wb.trade_chart.fig.data[2]
+    assert (ring.x[0], ring.y[0]) == (pts.x[i], pts.y[i]) and ring.marker.color == ACCENT
+    assert label in wb.prof_chart.fig.layout.title.text
+    assert '<tr class="hw-chosen"' in wb.table.html.value
+    chosen_row = wb.table.html.value.split('<tr class="hw-chosen"')[1].split("</tr>")[0]
+    assert 'data-candidate="xps_35"' in chosen_row
+
+
+def test_temperature_profile_in_the_chart(wb):
+    tr = wb.prof_chart.fig.data[0]
+    t = np.asarray(tr.y)
+    assert t[0] == pytest.approx(3.0) and t[-1] == pytest.approx(25.0)  # air temperatures, °C
+    assert np.all(np.diff(t) >= 0)  # heat flows inward: temperature rises monotonically outward
+
+
+def test_results_table_sorts(wb):
+    frame = wb.table.frame
+    wb.table.sort.value = "Mass per area"
+    order = [r.split('data-candidate="')[1].split('"')[0] for r in wb.table.html.value.split("<tr")[2:]]
+    assert order == list(frame.sort_values("mass_per_area").index)
+    wb.table.descending.value = True
+    order2 = [r.split('data-candidate="')[1].split('"')[0] for r in wb.table.html.value.split("<tr")[2:]]
+    assert order2 == order[::-1]
+    assert "Mass per area [kg/m²]" in wb.table.html.value
+
+
+def test_trade_off_marks_the_non_dominated_candidates(wb):
+    pytest.importorskip("workbench.ranking", reason="workbench.ranking (pareto_front) not landed yet")
+    paretoset = pytest.importorskip("paretoset")
+    pts = wb.trade_chart.fig.data[1]
+    x, y = np.asarray(pts.x), np.asarray(pts.y)
+    expected = paretoset.paretoset(np.column_stack([x, y]), sense=["min", "min"])
+    assert list(np.asarray(pts.marker.symbol) == "diamond") == list(expected)
+
+
+def test_picker_search_filter_add_remove(wb):
+    p = wb.picker
+    p.search.value = "stainless"
+    ids = [v for _, v in p.available.options]
+    assert ids and all("stainless" in i for i in ids)
+    p.available.value = ("stainless_304",)
+    assert "14.9 W/(m·K)" in p.detail.value and "source" in p.detail.value
+    p.add.click()
+    assert "stainless_304" in wb.study.names
+    assert len(wb.flux_chart.fig.data) == len(wb.study.names) + 3
+    i = wb.study.names.index("stainless_304")
+    assert wb.req_chart.fig.layout.xaxis.type == "log"  # steel needs metres, foams millimetres
+    assert wb.labels[i] in list(wb.req_chart.fig.data[0].y) or len(wb.study.names) > 20
+    p.family.value = "rigid_foam"
+    p.search.value = ""
+    assert all(wb.study.materials.loc[v, "family"] == "rigid_foam" for _, v in p.available.options)
+    p.chosen.value = ("stainless_304",)
+    p.remove.click()
+    assert "stainless_304" not in wb.study.names
+    p.chosen.value = tuple(p.chosen_ids)
+    p.remove.click()
+    assert "at least one" in p.message.value and len(wb.study.names) == 9
+
+
+def test_user_materials_file(wb):
+    p = wb.picker
+    p.path.value = "tests/data/bad_many.csv"
+    p.load.click()
+    assert "bad_many.csv:5:emissivity" in p.message.value
+    p.path.value = "tests/data/no_such_file.csv"
+    p.load.click()
+    assert "materials file" in p.message.value
+    p.path.value = "tests/data/user_materials_ok.csv"
+    p.load.click()
+    assert "Loaded" in p.message.value
+    user = load_materials("tests/data/user_materials_ok.csv")
+    new = [i for i in user.index if user.loc[i, "origin"] != "curated"]
+    assert new and set(new) <= {v for _, v in p.available.options} | set(wb.study.materials.index)
+    assert wb.status.value == ""
+
+
+def test_many_candidates_use_one_combined_trace(materials):
+    ids = [i for i in materials.index if materials.loc[i, "family"] != "gas"][: EACH_TRACE_LIMIT + 8]
+    study = WallStudy(ids, materials, t_inside=276.15, t_outside=298.15, budget=HeatBudget("flux", 6.0),
+                      max_thickness=0.06)
+    wb = Workbench(study)
+    line = wb.flux_chart.fig.data[0]
+    g = wb.view.grid.size
+    assert len(line.y) == len(ids) * (g + 1)
+    y = np.asarray(line.y, float).reshape(len(ids), g + 1)
+    assert np.isnan(y[:, -1]).all()
+    assert_allclose(y[:, :-1], wb.view.flux)
+    assert "DEMO" not in wb.header.value
+
+
+def test_build_ups_and_films_suffice(materials):
+    # a two-layer build-up and a budget so loose that the films alone meet it
+    panel = Candidate("steel-faced PIR", (Layer("carbon_steel", 0.0006), Layer("pir_32")))
+    study = WallStudy(["eps_20", panel], materials, t_inside=293.15, t_outside=283.15,
+                      budget=HeatBudget("flux", 100.0))
+    wb = Workbench(study)
+    assert wb.view.required.tolist() == [0.0, 0.0]  # 10 K / 0.17 m²K/W = 59 W/m² < 100 W/m²
+    assert list(wb.req_chart.fig.data[0].text) == ["films suffice", "films suffice"]
+    wb.highlight.value = 1
+    assert wb.prof_chart.fig.layout.annotations[1].text == "pir_32"
+
+
+def test_sync_figure_state_pushes_current_data():
+    fig = go.FigureWidget(data=[go.Scatter(x=[0, 1], y=[0, 1])], layout=dict(title=dict(text="before")))
+    with fig.batch_update():
+        fig.data[0].y = [5, 6]
+        fig.layout.title.text = "after"
+    assert list(fig._widget_data[0]["y"]) == [0, 1]  # the synced state is stale ...
+    sync_figure_state(fig)
+    assert list(fig._widget_data[0]["y"]) == [5, 6]  # ... until re-synced
+    assert fig._widget_layout["title"]["text"] == "after"
+
+
+def test_workbench_display_resyncs_charts(wb):
+    wb.s_thick.value = 33.0
+    stale = wb.flux_chart.fig._widget_data  # traces were added after construction
+    assert len(stale) < len(wb.flux_chart.fig.data) or not np.allclose(np.asarray(stale[-1]["x"], float), 33.0)
+    bundle = wb._repr_mimebundle_()
+    assert "application/vnd.jupyter.widget-view+json" in bundle
+    assert_allclose(np.asarray(wb.flux_chart.fig._widget_data[-1]["x"], float), 33.0)
+
+
+def test_fine_sweep_runner_matches_the_study_and_reports_progress(wb):
+    study = wb.study
+    lt = np.linspace(0.005, 0.1, 50)
+    dts = np.linspace(1.0, 40.0, 70)
+    seen = []
+    runner = TaskRunner()
+    out = runner.run(fine_sweep, study, lt, dts, chunk=16, background=False, on_done=seen.append)
+    assert runner.state == "done" and seen and seen[0] is out
+    assert_allclose(out, study.sweep(lt, dts))
+    fractions = []
+    fine_sweep(study, lt, dts, progress=fractions.append, chunk=16)
+    assert fractions == sorted(fractions) and fractions[-1] == 1.0 and len(fractions) == 5
+
+
+def test_runner_cancel_stops_between_chunks(wb):
+    calls = []
+
+    def cancelled():
+        calls.append(1)
+        return len(calls) > 2  # the user presses Cancel during the third chunk
+
+    with pytest.raises(Cancelled):
+        fine_sweep(wb.study, np.linspace(0.01, 0.1, 20), np.linspace(1, 40, 100), cancelled=cancelled, chunk=10)
+    assert len(calls) == 3
+    # through the widget, in a background thread: the cancel button stops a long sweep
+    runner = TaskRunner()
+    started = threading.Event()
+
+    def slow(progress, cancelled):
+        def progress2(f):
+            started.set()
+            progress(f)
+        return fine_sweep(wb.study, np.linspace(0.001, 0.2, 400), np.linspace(0.5, 60, 4000),
+                          progress=progress2, cancelled=lambda: cancelled() or False, chunk=1)
+
+    runner.run(slow)
+    assert started.wait(30)
+    runner.cancel_button.click()
+    assert runner.wait(30)
+    assert runner.state == "cancelled" and "Cancelled" in runner.status.value
+    assert 0 < runner.bar.value < 1
+
+
+def test_runner_failure_is_shown_not_raised(wb):
+    runner = TaskRunner()
+    out = runner.run(fine_sweep, wb.study, [0.01, -0.02], [10.0], background=False)
+    assert out is None and runner.state == "failed"
+    assert "thicknesses" in runner.status.value
+
+
+def test_workbench_fine_sweep_button(wb):
+    wb.start_fine_sweep(background=False, n=60)
+    assert wb.runner.state == "done"
+    assert "meets the budget" in wb.sweep_result.value or "exceeds the budget" in wb.sweep_result.value
+
+
+def test_static_mode_shows_figure_documents_of_the_current_state():
+    # the mode used inside Voila, where FigureWidget views do not apply change messages
+    wb = Workbench(redraw="static")
+    assert "hw-redraw-static" in wb._dom_classes
+    outs = wb.charts.children
+    assert [type(o).__name__ for o in outs] == ["Output"] * 4
+    assert "hw-chart-flux" in outs[0]._dom_classes and "hw-chart-profile" in outs[3]._dom_classes
+    wb.s_thick.value = 22.0
+    assert wb.charts.children == outs  # the same Output widgets, new content
+    doc = outs[0].outputs[0]["data"]["application/vnd.plotly.v1+json"]
+    assert doc["data"][-1]["x"][0] == pytest.approx(22.0)  # plain JSON lists
+    assert "22 mm" in outs[3].outputs[0]["data"]["application/vnd.plotly.v1+json"]["layout"]["title"]["text"]
+    msg = wb.set_inputs(max_thickness="1 in")
+    assert msg == {"max_thickness": ""}
+    notes = outs[1].outputs[0]["data"]["application/vnd.plotly.v1+json"]["layout"]["annotations"]
+    assert notes[0]["text"] == "max 25.4 mm"
+    with pytest.raises(ValueError, match="redraw"):
+        Workbench(redraw="sometimes")
+
+
+def test_table_lists_at_most_40_rows(materials):
+    ids = [i for i in materials.index if materials.loc[i, "family"] != "gas"][:45]
+    wb = Workbench(WallStudy(ids, materials, budget=HeatBudget("flux", 10.0)))
+    assert wb.table.html.value.count("<tr") == 1 + 40
+    assert "first 40 of 45" in wb.table.html.value

@@ -1,0 +1,23 @@
+"""Interactive workbench for Jupyter (ipywidgets + plotly FigureWidget).
+
+Only this package imports ipywidgets and plotly's widget classes; nothing
+imports it. Show :class:`Workbench` in one cell::
+
+    from workbench.widgets import Workbench
+    Workbench()
+"""
+
+from workbench.widgets.app import DEMO_CANDIDATES, DEMO_TITLE, Workbench, demo_study
+from workbench.widgets.charts import sync_figure_state
+from workbench.widgets.runner import Cancelled, TaskRunner, fine_sweep
+
+__all__ = [
+    "Workbench",
+    "demo_study",
+    "DEMO_CANDIDATES",
+    "DEMO_TITLE",
+    "sync_figure_state",
+    "TaskRunner",
+    "fine_sweep",
+    "Cancelled",
+]

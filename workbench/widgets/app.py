@@ -1,0 +1,596 @@
+"""The wall workbench: pick candidates, set conditions with units, sweep, compare.
+
+:class:`Workbench` is an ipywidgets ``VBox`` shown in one cell. It holds a
+:class:`~workbench.studies.wall.WallStudy` (all numbers come from it), input
+widgets that change the study, and four plotly charts plus a results table
+that are updated in place on every change.
+"""
+
+from __future__ import annotations
+
+import base64
+import dataclasses
+import html
+import json
+import os
+import time
+
+import ipywidgets as widgets
+import numpy as np
+import pandas as pd
+
+from workbench import units
+from workbench.materials import MaterialsFileError, load_conductivity_curves, load_materials
+from workbench.studies.wall import HeatBudget, WallStudy
+from workbench.widgets import style
+from workbench.widgets.charts import (
+    CRITERIA,
+    FluxChart,
+    ProfileChart,
+    RequiredChart,
+    TradeoffChart,
+    WallView,
+    compute_view,
+    sync_figure_state,
+)
+from workbench.widgets.fields import LOG, UnitField, show_message
+from workbench.widgets.picker import CandidatePicker, short_label
+from workbench.widgets.runner import TaskRunner, fine_sweep
+from workbench.widgets.table import ResultsTable
+
+__all__ = ["Workbench", "demo_study", "DEMO_CANDIDATES", "DEMO_TITLE"]
+
+#: Invented demo scenario: the door panel of a refrigerated display cabinet.
+DEMO_TITLE = "Demo (invented): door panel of a refrigerated display cabinet"
+DEMO_CANDIDATES = ("eps_20", "xps_35", "pir_32", "pur_cast_40", "phenolic_35", "glass_wool_32",
+                   "cork_board_120", "aerogel_blanket", "vip_effective")
+_BUDGET_KINDS = {"flux": "heat_flux", "power": "power", "u_value": "u_value"}
+_BUDGET_LABELS = (("Heat flux", "flux"), ("Total heat flow", "power"), ("U-value", "u_value"))
+
+
+def demo_study(materials: pd.DataFrame | None = None, k_curves: dict | None = None) -> WallStudy:
+    """The invented demo scenario (all numbers made up for the demo).
+
+    A door panel of 0.6 m² between a cabinet held at 3 °C and a shop at 25 °C,
+    which may pass at most 6 W/m² and be at most 60 mm thick.
+    """
+    m = load_materials() if materials is None else materials
+    kc = load_conductivity_curves() if k_curves is None else k_curves
+    return WallStudy(
+        candidates=list(DEMO_CANDIDATES), materials=m,
+        t_inside=276.15, t_outside=298.15, area=0.6,
+        budget=HeatBudget("flux", 6.0), max_thickness=0.06, thickness=0.04, k_curves=kc,
+    )
+
+
+def static_figure_output(fig) -> dict:
+    """One Output-widget entry showing ``fig`` as a plotly figure document (plain JSON lists)."""
+    full = fig.to_plotly_json()
+    spec = json.loads(json.dumps(_plain({"data": full["data"], "layout": full["layout"]})))
+    spec["config"] = {"displaylogo": False, "responsive": False}
+    return {"output_type": "display_data", "metadata": {},
+            "data": {"application/vnd.plotly.v1+json": spec, "text/plain": "<chart>"}}
+
+
+def _plain(obj):
+    """Numpy arrays and scalars to plain lists and numbers (NaN becomes null), recursively."""
+    if isinstance(obj, np.ndarray):
+        if obj.dtype.kind == "f":
+            return [None if not np.isfinite(v) else float(v) for v in obj.ravel()] if obj.ndim == 1 else \
+                [_plain(row) for row in obj]
+        return [_plain(v) for v in obj.tolist()]
+    if isinstance(obj, dict):
+        if "bdata" in obj and "dtype" in obj:  # plotly's typed-array spec
+            arr = np.frombuffer(base64.b64decode(obj["bdata"]), dtype=np.dtype(obj["dtype"]))
+            if "shape" in obj:
+                shape = obj["shape"]
+                arr = arr.reshape([int(n) for n in str(shape).split(",")] if isinstance(shape, str) else shape)
+            return _plain(arr)
+        return {k: _plain(v) for k, v in obj.items()}
+    if isinstance(obj, (list, tuple)):
+        return [_plain(v) for v in obj]
+    if isinstance(obj, np.generic):
+        return obj.item()
+    if isinstance(obj, float) and not np.isfinite(obj):
+        return None
+    return obj
+
+
+def _section(text: str) -> widgets.HTML:
+    return widgets.HTML(f'<div class="hw-section">{html.escape(text)}</div>')
+
+
+class Workbench(widgets.VBox):
+    """Interactive wall comparison, shown in one notebook cell.
+
+    Parameters
+    ----------
+    study : WallStudy, optional
+        The study to start from; default: the invented demo scenario
+        (:func:`demo_study`), labelled as a demo.
+    system : {"SI", "US"}
+        Initial display system.
+    title : str, optional
+        Heading; default names the demo scenario or "Wall comparison".
+    demo : bool, optional
+        Show the "DEMO — invented numbers" badge; default: when no study is given.
+    redraw : {"auto", "messages", "static"}
+        How chart changes reach the browser: plotly's change messages to the
+        FigureWidgets (notebook front ends), or static figure documents replaced
+        after each update (needed under Voila); "auto" chooses by the kernel's
+        environment.
+
+    Notes
+    -----
+    Every input change recomputes through the study's vectorised methods and
+    updates the existing figures in place. Bad input shows a message beside
+    its field and keeps the last good result; errors are logged to the
+    ``workbench.widgets`` logger, never raised into the notebook.
+    """
+
+    def __init__(self, study: WallStudy | None = None, system: str = "SI", title: str | None = None,
+                 demo: bool | None = None, redraw: str = "auto"):
+        units.check_system(system)
+        if redraw not in ("auto", "messages", "static"):
+            raise ValueError(f"redraw: unknown {redraw!r}; valid: ['auto', 'messages', 'static']")
+        # Under Voila (0.5.13 with plotly 7.1 / anywidget 0.11 here) FigureWidget views
+        # do not apply plotly's change messages. "static" shows each chart as a plotly
+        # figure document in an Output widget, replaced after every update (the
+        # FigureWidgets stay the model); "auto" picks it inside a Voila kernel.
+        self.redraw = ("static" if os.environ.get("VOILA_KERNEL_ID") else "messages") if redraw == "auto" else redraw
+        demo = study is None if demo is None else bool(demo)
+        self.study = demo_study() if study is None else study
+        self.system = system
+        self._chosen = 0
+        self._silent = False
+        self.view: WallView | None = None
+        self.timings: dict[str, float] = {}
+        self._direction = -1.0 if self.study.t_inside < self.study.t_outside else 1.0
+        if self.study.budget is None:
+            self.study.budget = HeatBudget("flux", 10.0)
+        title = title or (DEMO_TITLE if demo else "Wall comparison")
+        self._build(title, demo)
+        self._set_candidates_ui()
+        self.refresh()
+        super().__init__(children=self._children)
+        self.add_class("hw-root")
+        self.add_class("hw-workbench")
+        self.add_class(f"hw-redraw-{self.redraw}")
+
+    # ------------------------------------------------------------------ build
+    def _build(self, title: str, demo: bool) -> None:
+        s = self.study
+        w = widgets.Layout
+        badge = '<span class="hw-badge">DEMO — invented numbers</span>' if demo else ""
+        self.header = widgets.HTML(
+            f'{style.CSS}<div class="hw-title">{html.escape(title)}{badge}</div>'
+            '<div class="hw-subtitle">Which wall material meets the heat budget thinnest, lightest, cheapest? '
+            "Inputs accept units (25 mm, 1 in, 77 °F). Each candidate keeps its colour in the charts; "
+            '<b style="color:#d9480f">orange</b> marks the chosen one.</div>',
+            layout=w(flex="1 1 auto"),
+        )
+        self.system_toggle = widgets.ToggleButtons(options=[("SI", "SI"), ("US customary", "US")], value=self.system,
+                                                   style={"button_width": "112px"}, tooltips=["SI units", "US customary units"],
+                                                   layout=w(min_width="240px", flex="0 0 auto"))
+        self.system_toggle.add_class("hw-system")
+        self.cautions = widgets.HTML(f'<div class="hw-cautions"><b>Cautions:</b> {html.escape(style.CAUTIONS)}</div>')
+        self.cautions.add_class("hw-cautions-box")
+        self.summary = widgets.HTML("")
+        self.summary.add_class("hw-summary")
+        self.status = widgets.HTML("")
+        self.status.add_class("hw-status")
+
+        self.picker = CandidatePicker(s.materials, [c.name for c in s.candidates], self._set_candidates,
+                                      on_file=self._load_file, system=self.system)
+
+        self.f_inside = UnitField("Inside air", "temperature", "inside temperature", s.t_inside,
+                                  lambda v: self._apply_temperatures(t_inside=v), self.system, "hw-t-inside")
+        self.f_outside = UnitField("Outside air", "temperature", "outside temperature", s.t_outside,
+                                   lambda v: self._apply_temperatures(t_outside=v), self.system, "hw-t-outside")
+        self.f_area = UnitField("Wall area", "area", "area", s.area, lambda v: self._apply(area=v), self.system,
+                                "hw-area")
+        self.budget_kind = widgets.Dropdown(options=_BUDGET_LABELS, value=s.budget.kind, description="Heat budget as",
+                                            style={"description_width": "118px"}, layout=w(width="300px"))
+        self.budget_kind.add_class("hw-budget-kind")
+        self.f_budget = UnitField("Budget", _BUDGET_KINDS[s.budget.kind], "heat budget", s.budget.value,
+                                  self._apply_budget_value, self.system, "hw-budget")
+        self.f_max = UnitField("Max thickness", "thickness", "max thickness",
+                               s.max_thickness if s.max_thickness is not None else 0.1,
+                               lambda v: self._apply(max_thickness=v), self.system, "hw-max-thickness")
+
+        self.s_thick = widgets.FloatSlider(description="Thickness", continuous_update=True,
+                                           style={"description_width": "118px"}, layout=w(width="330px"))
+        self.s_thick.add_class("hw-thickness")
+        self.s_dt = widgets.FloatSlider(description="ΔT", continuous_update=True,
+                                        style={"description_width": "118px"}, layout=w(width="330px"))
+        self.s_dt.add_class("hw-delta-t")
+        self.slider_hint = widgets.HTML("")
+        self.highlight = widgets.Dropdown(description="Chosen candidate", style={"description_width": "118px"},
+                                          layout=w(width="330px"))
+        self.highlight.add_class("hw-highlight")
+        opts = [(t, k) for k, (t, _, _) in CRITERIA.items()]
+        self.crit_x = widgets.Dropdown(options=opts, value="required", description="Trade-off x",
+                                       style={"description_width": "118px"}, layout=w(width="330px"))
+        self.crit_y = widgets.Dropdown(options=opts, value="mass", description="Trade-off y",
+                                       style={"description_width": "118px"}, layout=w(width="330px"))
+        self.crit_c = widgets.Dropdown(options=opts, value="cost", description="Colour",
+                                       style={"description_width": "118px"}, layout=w(width="330px"))
+        for d, css in ((self.crit_x, "hw-crit-x"), (self.crit_y, "hw-crit-y"), (self.crit_c, "hw-crit-c")):
+            d.add_class(css)
+
+        self.flux_chart = FluxChart(width=420, height=320)
+        self.req_chart = RequiredChart(width=420, height=320)
+        self.trade_chart = TradeoffChart(width=420, height=320)
+        self.prof_chart = ProfileChart(width=420, height=320)
+        for chart, css in ((self.flux_chart, "hw-chart-flux"), (self.req_chart, "hw-chart-required"),
+                           (self.trade_chart, "hw-chart-tradeoff"), (self.prof_chart, "hw-chart-profile")):
+            chart.fig.add_class(css)
+        self.req_chart.fig.data[0].on_click(self._clicked_bar)
+        self.trade_chart.fig.data[1].on_click(self._clicked_point)
+
+        self.table = ResultsTable()
+        self.runner = TaskRunner("Fine sweep")
+        self.sweep_button = widgets.Button(description="Fine sweep of ΔT", icon="play",
+                                           tooltip="Flux of every candidate over 400 ΔT × 400 thicknesses, in chunks",
+                                           layout=w(width="160px"))
+        self.sweep_button.add_class("hw-fine-sweep")
+        self.sweep_result = widgets.HTML("")
+        self.sweep_result.add_class("hw-sweep-result")
+
+        left = widgets.VBox([
+            _section("Candidates"), self.picker.box,
+            _section("Conditions"), self.f_inside.box, self.f_outside.box, self.f_area.box, self.budget_kind,
+            self.f_budget.box, self.f_max.box,
+            _section("Sweep"), self.s_thick, self.s_dt, self.slider_hint,
+            _section("View"), self.highlight, self.crit_x, self.crit_y, self.crit_c,
+        ], layout=w(width="350px", min_width="350px", margin="0 12px 0 0"))
+        left.add_class("hw-panel")
+        shown = [c.fig for c in self._charts()]
+        if self.redraw == "static":
+            shown = []
+            for chart in self._charts():
+                out = widgets.Output(layout=w(width="424px", min_height="320px"))
+                for css in chart.fig._dom_classes:
+                    out.add_class(css)
+                shown.append(out)
+        self.charts = charts = widgets.GridBox(
+            shown,
+            layout=w(grid_template_columns="repeat(auto-fit, 424px)", grid_gap="6px 6px", width="100%"),
+        )
+        right = widgets.VBox([self.summary, charts], layout=w(flex="1 1 430px", min_width="430px"))
+        self._children = [
+            widgets.HBox([self.header, self.system_toggle], layout=w(align_items="center")),
+            self.cautions,
+            self.status,
+            widgets.HBox([left, right], layout=w(flex_flow="row wrap", align_items="flex-start")),
+            _section("Results at the design point (each candidate at its required thickness)"),
+            self.table.box,
+            _section("Long computations"),
+            widgets.HBox([self.sweep_button, self.runner.box]),
+            self.sweep_result,
+        ]
+
+        self.system_toggle.observe(lambda c: self._guard(self._set_system, c["new"]), "value")
+        self.budget_kind.observe(lambda c: self._guard(self._set_budget_kind, c["old"], c["new"]), "value")
+        self.s_thick.observe(lambda c: self._slider(self._set_thickness, c), "value")
+        self.s_dt.observe(lambda c: self._slider(self._set_delta_t, c), "value")
+        self.highlight.observe(lambda c: self._guard(self._set_chosen, c["new"]), "value")
+        for d in (self.crit_x, self.crit_y, self.crit_c):
+            d.observe(lambda _: self._guard(self._set_criteria), "value")
+        self.sweep_button.on_click(lambda _: self._guard(self.start_fine_sweep))
+
+    # ------------------------------------------------------------- plumbing
+    def _guard(self, fn, *args):
+        """Run an event handler; show any problem in the status line, never raise."""
+        try:
+            return fn(*args)
+        except ValueError as exc:
+            show_message(self.status, str(exc))
+        except Exception as exc:
+            LOG.exception("workbench event failed")
+            show_message(self.status, f"Something went wrong ({type(exc).__name__}: {exc}); the last good result is shown.")
+        return None
+
+    def _slider(self, fn, change):
+        if self._silent:
+            return
+        self._guard(fn, change["new"])
+
+    @property
+    def labels(self) -> list[str]:
+        """Chart labels of the candidates (short material names)."""
+        m = self.study.materials
+        out = []
+        for c in self.study.candidates:
+            lab = short_label(m.loc[c.name, "name"]) if len(c.layers) == 1 and c.name == c.sized_material else c.name
+            out.append(lab)
+        seen: dict[str, int] = {}
+        for i, lab in enumerate(out):  # keep labels unique
+            if lab in seen:
+                out[i] = f"{lab} ({self.study.candidates[i].name})"
+            seen[lab] = i
+        return out
+
+    @property
+    def currency(self) -> str | None:
+        m = self.study.materials
+        cur = sorted({str(c) for c in m["currency"].dropna() if str(c).strip()}) if "currency" in m else []
+        return cur[0] if len(cur) == 1 else None
+
+    def _grid(self) -> np.ndarray:
+        top = max(0.2, 2.0 * (self.study.max_thickness or 0.1))
+        return np.linspace(top / 200, top, 200)
+
+    # --------------------------------------------------------------- updates
+    def refresh(self, table: bool = True) -> None:
+        """Recompute through the study and update every chart in place (and the table)."""
+        t0 = time.perf_counter()
+        view = compute_view(self.study, self._grid(), self._chosen)
+        t1 = time.perf_counter()
+        self.flux_chart.update(view, self.system)
+        self.req_chart.update(view, self.system)
+        self.trade_chart.update(view, self.system, front=self._front(view))
+        self.prof_chart.update(view, self.system, self.labels[self._chosen])
+        t2 = time.perf_counter()
+        if self.redraw == "static" and getattr(self, "charts", None) is not None:
+            self._show_static()
+        self.view = view
+        self._summary(view)
+        if table:
+            self._update_table(view)
+        t3 = time.perf_counter()
+        self.timings = {"compute": t1 - t0, "figures": t2 - t1, "table": t3 - t2, "total": t3 - t0}
+        show_message(self.status, "")
+
+    def _front(self, view: WallView):
+        try:
+            from workbench.ranking import pareto_front
+        except ImportError:
+            return None
+        objs = np.column_stack([getattr(view, CRITERIA[k][2]) for k in (self.trade_chart.x_key, self.trade_chart.y_key)])
+        ok = np.all(np.isfinite(objs), axis=1)
+        mask = np.zeros(len(objs), bool)
+        if ok.any():
+            mask[ok] = pareto_front(objs[ok])
+        return mask
+
+    def _update_table(self, view: WallView) -> None:
+        frame = self.study.results()
+        frame["label"] = self.labels
+        frame["flux_now"] = view.flux_now
+        self.table.set_frame(frame, self.system, self.currency, self.study.names[self._chosen])
+
+    def _summary(self, view: WallView) -> None:
+        labels = self.labels
+        s = self.study
+
+        def best(values, kind):
+            v = np.where(np.isfinite(values), values, np.inf)
+            i = int(np.argmin(v))
+            return (f"<b>{html.escape(labels[i])}</b> "
+                    f"({html.escape(units.format_quantity(float(values[i]), kind, self.system, currency=self.currency))})")
+
+        dt = units.format_quantity(abs(s.delta_t), "temperature_difference", self.system)
+        budget = units.format_quantity(s.budget.value, _BUDGET_KINDS[s.budget.kind], self.system)
+        fits = int(np.sum(view.required <= (s.max_thickness or np.inf)))
+        self.summary.value = (
+            f'<div class="hw-detail">ΔT {html.escape(dt)}, budget {html.escape(budget)} → '
+            f"thinnest {best(view.required, 'thickness')}, lightest {best(view.mass, 'mass_per_area')}, "
+            f"cheapest {best(view.cost, 'cost_per_area')}; {fits} of {len(labels)} fit the max thickness.</div>"
+        )
+
+    def _configure_sliders(self) -> None:
+        """Set slider ranges and values in the display system (no recompute)."""
+        self._silent = True
+        try:
+            g = self._grid()
+            us = self.system == "US"
+            lo, hi = (float(units.from_si(g[0], "thickness", self.system)),
+                      float(units.from_si(g[-1], "thickness", self.system)))
+            step = 0.05 if us else 1.0
+            self.s_thick.min, self.s_thick.max = 0.0, hi  # widen first, then narrow
+            self.s_thick.min = round(max(lo, step), 2)
+            self.s_thick.step = step
+            self.s_thick.readout_format = ".2f" if us else ".0f"
+            self.s_thick.description = f"Thickness [{units.display_unit('thickness', self.system)}]"
+            self.s_thick.value = float(np.clip(units.from_si(self.study.thickness, "thickness", self.system),
+                                               self.s_thick.min, self.s_thick.max))
+            dt = abs(self.study.delta_t)
+            dmax_si = max(60.0, 1.5 * dt)
+            self.s_dt.min, self.s_dt.max = 0.0, float(units.from_si(dmax_si, "temperature_difference", self.system))
+            self.s_dt.min = float(units.from_si(0.5, "temperature_difference", self.system))
+            self.s_dt.step = 0.5
+            self.s_dt.readout_format = ".1f"
+            self.s_dt.description = f"ΔT [{units.display_unit('temperature_difference', self.system)}]"
+            self.s_dt.value = float(units.from_si(max(dt, 0.5), "temperature_difference", self.system))
+            self.slider_hint.value = ('<div class="hw-hint">The ΔT slider moves the inside temperature; '
+                                      "the outside stays as typed.</div>")
+        finally:
+            self._silent = False
+
+    def _set_candidates_ui(self) -> None:
+        labels = self.labels
+        srcs = list(self.study.materials.loc[[c.sized_material for c in self.study.candidates], "conductivity_source"])
+        for chart in (self.flux_chart, self.req_chart, self.trade_chart, self.prof_chart):
+            chart.set_candidates(labels, srcs, self.currency)
+        self._chosen = min(self._chosen, len(labels) - 1)
+        self._silent = True
+        try:
+            self.highlight.options = [(lab, i) for i, lab in enumerate(labels)]
+            self.highlight.value = self._chosen
+        finally:
+            self._silent = False
+        self._configure_sliders()
+
+    # ---------------------------------------------------------------- inputs
+    def _apply(self, **changes) -> None:
+        """Replace study inputs (validated by the study), then refresh; raises ValueError if rejected."""
+        new = dataclasses.replace(self.study, **changes)
+        old, self.study = self.study, new
+        try:
+            self.refresh()
+        except Exception:
+            self.study = old
+            self.refresh()
+            raise
+        if "max_thickness" in changes:
+            self._configure_sliders()
+            self.refresh()
+
+    def _apply_temperatures(self, **changes) -> None:
+        self._apply(**changes)
+        s = self.study
+        if s.t_inside != s.t_outside:
+            self._direction = -1.0 if s.t_inside < s.t_outside else 1.0
+        self._configure_sliders()
+
+    def _apply_budget_value(self, value: float) -> None:
+        self._apply(budget=HeatBudget(self.budget_kind.value, value))
+
+    def _set_budget_kind(self, old: str, new: str) -> None:
+        if self._silent:
+            return
+        s = self.study
+        flux = float(np.abs(s.max_flux()))  # the present budget, as a flux at the design ΔT
+        equivalent = {"flux": flux, "power": flux * s.area,
+                      "u_value": flux / abs(s.delta_t) if s.delta_t else 0.3}[new]
+        self.f_budget.kind = _BUDGET_KINDS[new]
+        self.f_budget.set_value(equivalent)
+        self._apply(budget=HeatBudget(new, equivalent))
+
+    def _set_thickness(self, value_display: float) -> None:
+        old = self.study.thickness
+        self.study.thickness = float(units.to_si(value_display, units.display_unit("thickness", self.system).replace("″", ""),
+                                                 "thickness", "thickness"))
+        try:
+            self.refresh()
+        except Exception:
+            self.study.thickness = old
+            raise
+
+    def _set_delta_t(self, value_display: float) -> None:
+        s = self.study
+        dt = float(units.to_si(value_display, units.KINDS["temperature_difference"].display[self.system][0],
+                               "temperature_difference", "ΔT"))
+        old = s.t_inside
+        s.t_inside = s.t_outside + self._direction * dt
+        try:
+            self.refresh()
+        except Exception:
+            s.t_inside = old
+            raise
+        self.f_inside.set_value(s.t_inside)
+
+    def _set_chosen(self, index) -> None:
+        if self._silent or index is None:
+            return
+        self._chosen = int(index)
+        self.refresh()
+
+    def _set_criteria(self) -> None:
+        self.trade_chart.x_key, self.trade_chart.y_key, self.trade_chart.c_key = (
+            self.crit_x.value, self.crit_y.value, self.crit_c.value)
+        if self.view is not None:
+            self.trade_chart.update(self.view, self.system, front=self._front(self.view))
+            if self.redraw == "static":
+                self._show_static()
+
+    def _set_system(self, system: str) -> None:
+        self.system = system
+        for f in (self.f_inside, self.f_outside, self.f_area, self.f_budget, self.f_max):
+            f.set_system(system)
+        self.picker.set_system(system)
+        self._configure_sliders()
+        self.refresh()
+
+    def _set_candidates(self, ids: list[str]) -> None:
+        new = dataclasses.replace(self.study, candidates=list(ids))
+        chosen_name = self.study.names[self._chosen]
+        self.study = new
+        self._chosen = new.names.index(chosen_name) if chosen_name in new.names else 0
+        self._set_candidates_ui()
+        self.refresh()
+
+    def _load_file(self, path: str) -> None:
+        try:
+            materials = load_materials(path)
+            curves = load_conductivity_curves(path)
+        except MaterialsFileError as exc:
+            problems = getattr(exc, "problems", [str(exc)])
+            more = f"\n… and {len(problems) - 6} more" if len(problems) > 6 else ""
+            raise ValueError("materials file: " + "\n".join(problems[:6]) + more) from None
+        except OSError as exc:
+            raise ValueError(f"materials file: cannot read {path!r} ({exc.strerror or exc})") from None
+        self.study = dataclasses.replace(self.study, materials=materials, k_curves=curves)
+        self.picker.set_materials(materials)
+        self._set_candidates_ui()
+        self.refresh()
+
+    def _clicked_bar(self, trace, points, _state) -> None:
+        if points.point_inds:
+            label = trace.y[points.point_inds[0]]
+            self._guard(lambda: setattr(self.highlight, "value", self.labels.index(label)))
+
+    def _clicked_point(self, _trace, points, _state) -> None:
+        if points.point_inds:
+            self._guard(lambda: setattr(self.highlight, "value", int(points.point_inds[0])))
+
+    # ---------------------------------------------------------- public helpers
+    def set_inputs(self, **texts: str) -> dict[str, str]:
+        """Type text into fields by name (``t_inside``, ``t_outside``, ``area``,
+        ``budget``, ``max_thickness``); returns each field's message ("" if accepted)."""
+        fields = {"t_inside": self.f_inside, "t_outside": self.f_outside, "area": self.f_area,
+                  "budget": self.f_budget, "max_thickness": self.f_max}
+        out = {}
+        for name, text in texts.items():
+            if name not in fields:
+                raise ValueError(f"set_inputs: unknown field {name!r}; valid: {list(fields)}")
+            fields[name].text.value = text
+            out[name] = fields[name].error
+        return out
+
+    def start_fine_sweep(self, background: bool = True, n: int = 400):
+        """Flux of every candidate over ``n`` ΔT values × ``n`` thicknesses, chunked, cancellable."""
+        snapshot = dataclasses.replace(self.study)  # the sweep must not see later slider moves
+        lt = np.concatenate([[snapshot.thickness], np.linspace(self._grid()[0], self._grid()[-1], n)])
+        dts = np.linspace(0.5, max(60.0, 1.5 * abs(snapshot.delta_t)), n)
+        labels, chosen, system = self.labels, self._chosen, self.system
+
+        def done(result):
+            q_now = np.abs(result[:, 0, :])  # at the current thickness, per candidate and ΔT
+            limit = np.abs(snapshot.max_flux(dts))
+            ok = q_now <= limit
+            holds = np.where(ok.any(axis=1), np.where(ok, dts, -np.inf).max(axis=1), np.nan)
+            L = units.format_quantity(snapshot.thickness, "thickness", system)
+            i = chosen
+            if np.isnan(holds[i]):
+                text = f"At {L}, {labels[i]} exceeds the budget over the whole ΔT range."
+            elif ok[i].all():
+                text = f"At {L}, {labels[i]} meets the budget over the whole ΔT range swept."
+            else:
+                text = (f"At {L}, {labels[i]} meets the budget up to ΔT = "
+                        f"{units.format_quantity(holds[i], 'temperature_difference', system)}.")
+            n_ok = int(np.sum(ok[:, np.searchsorted(dts, min(abs(snapshot.delta_t), dts[-1]))]))
+            self.sweep_result.value = (f'<div class="hw-detail">{html.escape(text)} '
+                                       f"{n_ok} of {len(labels)} candidates meet it at the design ΔT "
+                                       f"({result.size:,} flux values).</div>")
+
+        return self.runner.run(fine_sweep, snapshot, lt, dts, on_done=done, background=background, chunk=16)
+
+    def _show_static(self) -> None:
+        """Static mode: show each chart as a plotly figure document in an Output widget."""
+        for chart, out in zip(self._charts(), self.charts.children, strict=True):
+            out.outputs = (static_figure_output(chart.fig),)
+
+    def _charts(self):
+        return (self.flux_chart, self.req_chart, self.trade_chart, self.prof_chart)
+
+    def resync(self) -> Workbench:
+        """Push every chart's full current state to its widget model (see :func:`sync_figure_state`)."""
+        for chart in (self.flux_chart, self.req_chart, self.trade_chart, self.prof_chart):
+            sync_figure_state(chart.fig)
+        return self
+
+    def _repr_mimebundle_(self, **kwargs):
+        self.resync()
+        return super()._repr_mimebundle_(**kwargs)
