@@ -401,3 +401,67 @@ def test_table_lists_at_most_40_rows(materials):
     wb = Workbench(WallStudy(ids, materials, budget=HeatBudget("flux", 10.0)))
     assert wb.table.html.value.count("<tr") == 1 + 40
     assert "first 40 of 45" in wb.table.html.value
+
+
+# ---------------------------------------------------------------------------
+# Scenario files from the workbench (save, open, reopen the last used)
+# ---------------------------------------------------------------------------
+
+
+def test_save_then_open_restores_inputs_and_choice(tmp_path, materials):
+    first = Workbench(autosave_delay=None)
+    assert first.set_inputs(t_inside="38 °F", budget="7 W/m^2") == {"t_inside": "", "budget": ""}
+    first.highlight.value = 2
+    bar = first.scenario_bar
+    bar.path.value = str(tmp_path / "panel.toml")
+    bar.save()
+    assert "Saved" in bar.message.value
+
+    second = Workbench(autosave_delay=None)
+    second.scenario_bar.path.value = str(tmp_path / "panel.toml")
+    second.scenario_bar.open()
+    assert second.study.names == first.study.names
+    assert second.study.t_inside == pytest.approx((38 - 32) * 5 / 9 + 273.15, abs=1e-9)
+    assert second.study.budget.value == pytest.approx(7.0)
+    assert second._chosen == 2
+    assert_allclose(second.study.required_thickness(), first.study.required_thickness(), rtol=1e-12)
+    assert second.f_inside.value_si == pytest.approx(first.f_inside.value_si, abs=1e-9)
+    assert second.f_inside.text.value.endswith("°C")  # shown in the saved display system
+
+
+def test_save_never_clobbers_silently(tmp_path):
+    w = Workbench(autosave_delay=None)
+    target = tmp_path / "panel.toml"
+    target.write_text("# someone else's file\n")
+    w.scenario_bar.path.value = str(target)
+    w.scenario_bar._guard(w.scenario_bar.save)
+    assert "exists" in w.scenario_bar.message.value
+    assert target.read_text() == "# someone else's file\n"
+    w.scenario_bar.overwrite.value = True
+    w.scenario_bar._guard(w.scenario_bar.save)
+    assert "Saved" in w.scenario_bar.message.value
+    assert (tmp_path / "panel.toml.bak").read_text() == "# someone else's file\n"
+
+
+def test_open_bad_or_foreign_scenario_shows_a_message_and_keeps_the_study(tmp_path):
+    w = Workbench(autosave_delay=None)
+    names = list(w.study.names)
+    bad = tmp_path / "broken.toml"
+    bad.write_text('format_version = 1\nkind = "wall"\n[inputs]\nt_inside = "20 kg"\n')
+    for path in (bad, tmp_path / "missing.toml", "examples/shipper.toml"):
+        w.scenario_bar.path.value = str(path)
+        w.scenario_bar._guard(w.scenario_bar.open)
+        assert 'class="hw-msg"' in w.scenario_bar.message.value
+        assert w.study.names == names
+
+
+def test_last_used_scenario_survives_a_new_workbench(tmp_path, monkeypatch):
+    """After a kernel restart a new workbench can reopen what was shown last."""
+    monkeypatch.setenv("HEATPATH_STATE_DIR", str(tmp_path / "state"))
+    w = Workbench(autosave_delay=60.0)
+    w.set_inputs(max_thickness="85 mm")
+    w.scenario_bar.flush()
+    fresh = Workbench(autosave_delay=None)
+    fresh.scenario_bar.recover()
+    assert fresh.study.max_thickness == pytest.approx(0.085)
+    assert "Reopened" in fresh.scenario_bar.message.value

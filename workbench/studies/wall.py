@@ -190,33 +190,60 @@ class WallStudy:
 
     # -- property arrays ---------------------------------------------------
     def _layer_arrays(self) -> dict[str, np.ndarray]:
-        """Per-candidate arrays: sized-layer properties and fixed-layer sums."""
+        """Per-candidate arrays, layers padded on the last axis (inside to outside).
+
+        ``L``/``k`` hold the fixed layers (NaN at the sized layer and in padding);
+        ``sized`` marks the sized layer; ``pad`` marks padding; service limits
+        are ±inf in padding.
+        """
         m = self.materials
-        k, rho, cost_m2_per_m, r_fixed, mass_fixed, cost_fixed, l_fixed = ([] for _ in range(7))
-        for c in self.candidates:
-            row = m.loc[c.sized_material]
-            k.append(row["conductivity"])
-            rho.append(row["density"])
-            cost_m2_per_m.append(_cost_per_volume(row))
-            fixed = [lay for lay in c.layers if lay.thickness is not None]
-            r_fixed.append(sum(lay.thickness / m.loc[lay.material, "conductivity"] for lay in fixed))
-            mass_fixed.append(sum(lay.thickness * m.loc[lay.material, "density"] for lay in fixed))
-            cost_fixed.append(sum(lay.thickness * _cost_per_volume(m.loc[lay.material]) for lay in fixed))
-            l_fixed.append(sum(lay.thickness for lay in fixed))
-        arr = {
-            "k_table": np.array(k, float),
-            "density": np.array(rho, float),
-            "cost_per_volume": np.array(cost_m2_per_m, float),
-            "r_fixed": np.array(r_fixed, float),
-            "mass_fixed": np.array(mass_fixed, float),
-            "cost_fixed": np.array(cost_fixed, float),
-            "l_fixed": np.array(l_fixed, float),
+        n = len(self.candidates)
+        width = max(len(c.layers) for c in self.candidates)
+        mats = np.full((n, width), "", dtype=object)
+        thick = np.full((n, width), np.nan)
+        sized = np.zeros((n, width), bool)
+        for i, c in enumerate(self.candidates):
+            for j, lay in enumerate(c.layers):
+                mats[i, j] = lay.material
+                thick[i, j] = np.nan if lay.thickness is None else lay.thickness
+            sized[i, c.sized_index] = True
+        pad = mats == ""
+        ids = np.where(pad, mats[~pad][0], mats).ravel()
+
+        def column(name: str, fill: float) -> np.ndarray:
+            vals = m[name].reindex(ids).to_numpy(float).reshape(n, width)
+            return np.where(pad, fill, vals)
+
+        k_all = column("conductivity", 1.0)
+        rho_all = column("density", 0.0)
+        cv_all = column("cost_per_volume", 0.0)
+        fixed = ~sized & ~pad
+        l_fix = np.where(fixed, thick, 0.0)
+        sized_idx = np.array([c.sized_index for c in self.candidates])
+        rows = np.arange(n)
+        return {
+            "k_table": k_all[rows, sized_idx],
+            "density": rho_all[rows, sized_idx],
+            "cost_per_volume": cv_all[rows, sized_idx],
+            "r_fixed": np.sum(l_fix / k_all, axis=-1),
+            "r_before": np.sum(np.where(np.arange(width) < sized_idx[:, None], l_fix / k_all, 0.0), axis=-1),
+            "mass_fixed": np.sum(l_fix * rho_all, axis=-1),
+            "cost_fixed": np.sum(l_fix * cv_all, axis=-1),
+            "l_fixed": np.sum(l_fix, axis=-1),
+            "layer_material": mats,
+            "layer_thickness": l_fix,
+            "layer_k": k_all,
+            "sized": sized,
+            "pad": pad,
+            "t_min": column("t_service_min", -np.inf),
+            "t_max": column("t_service_max", np.inf),
         }
-        return arr
 
     def _state(self) -> tuple:
+        """Inputs the effective k depends on (the set thickness only when not sizing)."""
+        thickness = None if self.budget is not None else self.thickness
         return (self.t_inside, self.t_outside, self.area, self.r_si, self.r_se,
-                self.budget, self.thickness)
+                self.budget, thickness)
 
     def _k(self) -> np.ndarray:
         """Effective conductivity of each sized layer at the design point. [W/(m·K)]
@@ -302,6 +329,18 @@ class WallStudy:
         extra = (1,) * lt.ndim
         return a["cost_fixed"].reshape(-1, *extra) + a["cost_per_volume"].reshape(-1, *extra) * lt
 
+    def design_mass_per_area(self, thicknesses=None) -> np.ndarray:
+        """Mass per area [kg/m²] with one sized thickness [m] per candidate (design by default)."""
+        a = self._arrays
+        lt = self.design_thickness() if thicknesses is None else np.asarray(thicknesses, float)
+        return a["mass_fixed"] + a["density"] * lt
+
+    def design_cost_per_area(self, thicknesses=None) -> np.ndarray:
+        """Cost per area [currency/m²] with one sized thickness [m] per candidate (design by default)."""
+        a = self._arrays
+        lt = self.design_thickness() if thicknesses is None else np.asarray(thicknesses, float)
+        return a["cost_fixed"] + a["cost_per_volume"] * lt
+
     # -- design point ----------------------------------------------------------
     def design_thickness(self) -> np.ndarray:
         """Sized thickness per candidate at the design point [m]: required, else the set thickness."""
@@ -310,20 +349,29 @@ class WallStudy:
         return np.full(len(self.candidates), float(self.thickness))
 
     def _solve_k_of_t(self) -> np.ndarray:
-        k = self._arrays["k_table"].copy()
-        curves = {i: self.k_curves[c.sized_material] for i, c in enumerate(self.candidates)
-                  if c.sized_material in self.k_curves}
-        if not curves or self.delta_t == 0:
+        """Fixed point: each sized layer's k is the integral mean between its own faces."""
+        a = self._arrays
+        k = a["k_table"].copy()
+        groups = {}
+        for i, c in enumerate(self.candidates):
+            if c.sized_material in self.k_curves:
+                groups.setdefault(c.sized_material, []).append(i)
+        if not groups or self.delta_t == 0:
             return k
+        groups = {mat: np.array(idx) for mat, idx in groups.items()}
         sizing = self.budget is not None
+        r_films = self.r_si + self.r_se
         for _ in range(100):
             k_old = k.copy()
             lt = self._required(k) if sizing else np.full(k.shape, float(self.thickness))
-            for i, (tt, kk) in curves.items():
-                t_a, t_b = self._sized_face_temperatures(i, max(float(lt[i]), 1e-9), k[i])
-                with warnings.catch_warnings():
-                    warnings.simplefilter("ignore", ValidityWarning)
-                    k[i] = conduction.mean_conductivity(tt, kk, t_a, t_b)
+            lt = np.maximum(lt, 1e-9)
+            q = self.delta_t / (r_films + a["r_fixed"] + lt / k)
+            t_a = self.t_inside - q * (self.r_si + a["r_before"])
+            t_b = t_a - q * lt / k
+            with warnings.catch_warnings():
+                warnings.simplefilter("ignore", ValidityWarning)
+                for mat, idx in groups.items():
+                    k[idx] = conduction.mean_conductivity(*self.k_curves[mat], t_a[idx], t_b[idx])
             if np.allclose(k, k_old, rtol=1e-12, atol=0):
                 return k
         raise RuntimeError("k(T): effective conductivity did not converge in 100 iterations")
@@ -342,13 +390,6 @@ class WallStudy:
                 ls.append(lay.thickness)
                 ks.append(float(self.materials.loc[lay.material, "conductivity"]))
         return names, np.array(ls), np.array(ks)
-
-    def _sized_face_temperatures(self, i: int, sized_thickness: float, k_sized: float
-                                 ) -> tuple[float, float]:
-        _, ls, ks = self._profile(i, sized_thickness, k_sized)
-        t = conduction.wall_temperatures(ls, ks, self.t_inside, self.t_outside, self.r_si, self.r_se)
-        j = self.candidates[i].sized_index
-        return float(t[j]), float(t[j + 1])
 
     def temperature_profile(self, name: str, sized_thickness: float | None = None) -> pd.DataFrame:
         """Positions [m] and temperatures [K] through one candidate's wall, air to air."""
@@ -384,48 +425,61 @@ class WallStudy:
         the budget and thickness limit are met; and the sources of k and ρ.
         """
         a = self._arrays
-        lt = self.design_thickness()
         m = self.materials
-        rows = []
-        for i, c in enumerate(self.candidates):
-            names, ls, ks = self._profile(i, max(float(lt[i]), 1e-9))
-            t = conduction.wall_temperatures(ls, ks, self.t_inside, self.t_outside, self.r_si, self.r_se)
-            r_total = self.r_si + self.r_se + float(np.sum(ls / ks))
-            q = abs(self.delta_t) / r_total
-            problems = []
-            for j, mat in enumerate(names):
-                lo, hi = sorted((t[j], t[j + 1]))
-                t_min, t_max = m.loc[mat, "t_service_min"], m.loc[mat, "t_service_max"]
-                if hi > t_max:
-                    problems.append(f"{mat} face at {hi - 273.15:.0f} °C above its limit {t_max - 273.15:.0f} °C")
-                if lo < t_min:
-                    problems.append(f"{mat} face at {lo - 273.15:.0f} °C below its limit {t_min - 273.15:.0f} °C")
-            sized = c.sized_material
-            rows.append({
-                "candidate": c.name,
-                "sized_material": sized,
-                "family": m.loc[sized, "family"],
-                "sized_thickness": float(lt[i]),
-                "total_thickness": float(lt[i] + a["l_fixed"][i]),
-                "conductivity": float(self._k()[i]),
-                "density": float(a["density"][i]),
-                "u_value": 1.0 / r_total,
-                "heat_flux": q,
-                "heat_flow": q * self.area,
-                "heat_flow_direction": "out through the wall" if self.delta_t > 0 else (
-                    "in through the wall" if self.delta_t < 0 else "none"),
-                "mass_per_area": float(a["mass_fixed"][i] + a["density"][i] * lt[i]),
-                "cost_per_area": float(a["cost_fixed"][i] + a["cost_per_volume"][i] * lt[i]),
-                "t_surface_inside": float(t[0]),
-                "t_surface_outside": float(t[-1]),
-                "within_service_limits": not problems,
-                "service_problems": "; ".join(problems),
-                "meets_budget": True if self.budget is None else bool(q <= float(self.max_flux()) * (1 + 1e-9)),
-                "within_max_thickness": True if self.max_thickness is None else bool(lt[i] <= self.max_thickness),
-                "conductivity_source": m.loc[sized, "conductivity_source"],
-                "density_source": m.loc[sized, "density_source"],
-            })
-        frame = pd.DataFrame(rows).set_index("candidate")
+        lt = self.design_thickness()
+        k = self._k()
+        ls = np.where(a["sized"], np.maximum(lt, 1e-9)[:, None], a["layer_thickness"])
+        ks = np.where(a["sized"], k[:, None], a["layer_k"])
+        r_layers = ls / ks
+        r_total = self.r_si + self.r_se + r_layers.sum(axis=-1)
+        q_signed = self.delta_t / r_total
+        q = np.abs(q_signed)
+        t0 = self.t_inside - q_signed * self.r_si
+        drops = np.cumsum(q_signed[:, None] * r_layers, axis=-1)
+        faces = np.concatenate([t0[:, None], t0[:, None] - drops], axis=-1)
+        lo = np.minimum(faces[:, :-1], faces[:, 1:])
+        hi = np.maximum(faces[:, :-1], faces[:, 1:])
+        too_hot = hi > a["t_max"]
+        too_cold = lo < a["t_min"]
+        problems = [""] * len(k)
+        for i in np.flatnonzero(np.any(too_hot | too_cold, axis=-1)):
+            why = []
+            for j in range(ls.shape[1]):
+                mat = a["layer_material"][i, j]
+                if too_hot[i, j]:
+                    why.append(f"{mat} face at {hi[i, j] - 273.15:.0f} °C above its limit "
+                               f"{a['t_max'][i, j] - 273.15:.0f} °C")
+                if too_cold[i, j]:
+                    why.append(f"{mat} face at {lo[i, j] - 273.15:.0f} °C below its limit "
+                               f"{a['t_min'][i, j] - 273.15:.0f} °C")
+            problems[i] = "; ".join(why)
+        sized_ids = [c.sized_material for c in self.candidates]
+        direction = ("out through the wall" if self.delta_t > 0 else
+                     "in through the wall" if self.delta_t < 0 else "none")
+        q_max = None if self.budget is None else float(self.max_flux())
+        frame = pd.DataFrame({
+            "candidate": self.names,
+            "sized_material": sized_ids,
+            "family": m["family"].reindex(sized_ids).to_numpy(),
+            "sized_thickness": lt,
+            "total_thickness": lt + a["l_fixed"],
+            "conductivity": k,
+            "density": a["density"],
+            "u_value": 1.0 / r_total,
+            "heat_flux": q,
+            "heat_flow": q * self.area,
+            "heat_flow_direction": direction,
+            "mass_per_area": a["mass_fixed"] + a["density"] * lt,
+            "cost_per_area": a["cost_fixed"] + a["cost_per_volume"] * lt,
+            "t_surface_inside": faces[:, 0],
+            "t_surface_outside": faces[:, -1],
+            "within_service_limits": [not p for p in problems],
+            "service_problems": problems,
+            "meets_budget": True if q_max is None else q <= q_max * (1 + 1e-9),
+            "within_max_thickness": True if self.max_thickness is None else lt <= self.max_thickness,
+            "conductivity_source": m["conductivity_source"].reindex(sized_ids).to_numpy(),
+            "density_source": m["density_source"].reindex(sized_ids).to_numpy(),
+        }).set_index("candidate")
         frame.attrs["units"] = {
             "sized_thickness": "m", "total_thickness": "m", "conductivity": "W/(m·K)",
             "density": "kg/m³", "u_value": "W/(m²·K)", "heat_flux": "W/m²", "heat_flow": "W",

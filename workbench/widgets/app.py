@@ -36,6 +36,7 @@ from workbench.widgets.charts import (
 from workbench.widgets.fields import LOG, UnitField, show_message
 from workbench.widgets.picker import CandidatePicker, short_label
 from workbench.widgets.runner import TaskRunner, fine_sweep
+from workbench.widgets.scenario_bar import ScenarioBar
 from workbench.widgets.table import ResultsTable
 
 __all__ = ["Workbench", "demo_study", "DEMO_CANDIDATES", "DEMO_TITLE"]
@@ -129,7 +130,7 @@ class Workbench(widgets.VBox):
     """
 
     def __init__(self, study: WallStudy | None = None, system: str = "SI", title: str | None = None,
-                 demo: bool | None = None, redraw: str = "auto"):
+                 demo: bool | None = None, redraw: str = "auto", autosave_delay: float | None = 1.5):
         units.check_system(system)
         if redraw not in ("auto", "messages", "static"):
             raise ValueError(f"redraw: unknown {redraw!r}; valid: ['auto', 'messages', 'static']")
@@ -149,6 +150,8 @@ class Workbench(widgets.VBox):
         if self.study.budget is None:
             self.study.budget = HeatBudget("flux", 10.0)
         title = title or (DEMO_TITLE if demo else "Wall comparison")
+        self.title = title
+        self.scenario_bar = ScenarioBar(self.current_scenario, self.open_study, autosave_delay)
         self._build(title, demo)
         self._set_candidates_ui()
         self.refresh()
@@ -161,14 +164,7 @@ class Workbench(widgets.VBox):
     def _build(self, title: str, demo: bool) -> None:
         s = self.study
         w = widgets.Layout
-        badge = '<span class="hw-badge">DEMO — invented numbers</span>' if demo else ""
-        self.header = widgets.HTML(
-            f'{style.CSS}<div class="hw-title">{html.escape(title)}{badge}</div>'
-            '<div class="hw-subtitle">Which wall material meets the heat budget thinnest, lightest, cheapest? '
-            "Inputs accept units (25 mm, 1 in, 77 °F). Each candidate keeps its colour in the charts; "
-            '<b style="color:#d9480f">orange</b> marks the chosen one.</div>',
-            layout=w(flex="1 1 auto"),
-        )
+        self.header = widgets.HTML(self._header_html(title, demo), layout=w(flex="1 1 auto"))
         self.system_toggle = widgets.ToggleButtons(options=[("SI", "SI"), ("US customary", "US")], value=self.system,
                                                    style={"button_width": "112px"}, tooltips=["SI units", "US customary units"],
                                                    layout=w(min_width="240px", flex="0 0 auto"))
@@ -265,6 +261,8 @@ class Workbench(widgets.VBox):
             widgets.HBox([left, right], layout=w(flex_flow="row wrap", align_items="flex-start")),
             _section("Results at the design point (each candidate at its required thickness)"),
             self.table.box,
+            _section("Scenario file (inputs, candidates and the chosen one, for the meeting to re-run)"),
+            self.scenario_bar.box,
             _section("Long computations"),
             widgets.HBox([self.sweep_button, self.runner.box]),
             self.sweep_result,
@@ -341,6 +339,7 @@ class Workbench(widgets.VBox):
         t3 = time.perf_counter()
         self.timings = {"compute": t1 - t0, "figures": t2 - t1, "table": t3 - t2, "total": t3 - t0}
         show_message(self.status, "")
+        self.scenario_bar.changed()
 
     def _front(self, view: WallView):
         try:
@@ -504,7 +503,8 @@ class Workbench(widgets.VBox):
         self.refresh()
 
     def _set_candidates(self, ids: list[str]) -> None:
-        new = dataclasses.replace(self.study, candidates=list(ids))
+        build_ups = [c for c in self.study.candidates if len(c.layers) > 1]
+        new = dataclasses.replace(self.study, candidates=build_ups + list(ids))
         chosen_name = self.study.names[self._chosen]
         self.study = new
         self._chosen = new.names.index(chosen_name) if chosen_name in new.names else 0
@@ -534,6 +534,68 @@ class Workbench(widgets.VBox):
     def _clicked_point(self, _trace, points, _state) -> None:
         if points.point_inds:
             self._guard(lambda: setattr(self.highlight, "value", int(points.point_inds[0])))
+
+    @staticmethod
+    def _header_html(title: str, demo: bool) -> str:
+        badge = '<span class="hw-badge">DEMO — invented numbers</span>' if demo else ""
+        return (f'{style.CSS}<div class="hw-title">{html.escape(title)}{badge}</div>'
+                '<div class="hw-subtitle">Which wall material meets the heat budget thinnest, lightest, cheapest? '
+                "Inputs accept units (25 mm, 1 in, 77 °F). Each candidate keeps its colour in the charts; "
+                '<b style="color:#d9480f">orange</b> marks the chosen one.</div>')
+
+    # ------------------------------------------------------------ scenarios
+    def current_scenario(self):
+        """The scenario of what is shown now (inputs, candidates, display system, chosen one)."""
+        from workbench.scenario import snapshot
+
+        return snapshot(self.study, system=self.system, chosen=self.study.names[self._chosen],
+                        title=self.title)
+
+    def open_study(self, study, scenario=None) -> None:
+        """Show another wall study (e.g. one loaded from a scenario file)."""
+        if not isinstance(study, WallStudy):
+            kind = getattr(scenario, "kind", type(study).__name__)
+            raise ValueError(f"scenario: this workbench shows wall comparisons; a {kind} scenario "
+                             "opens in its own notebook or with `heatpath report`")
+        if study.budget is None:
+            study.budget = HeatBudget("flux", 10.0)
+        old = (self.study, self._chosen, self.system)
+        if scenario is not None and getattr(scenario, "title", ""):
+            self.title = scenario.title
+            self.header.value = self._header_html(self.title, "demo" in self.title.lower())
+        self.study = study
+        chosen = getattr(getattr(scenario, "decision", None), "chosen", None)
+        self._chosen = study.names.index(chosen) if chosen in study.names else 0
+        if scenario is not None and getattr(scenario, "display_system", None) in units.SYSTEMS:
+            self.system = scenario.display_system
+        try:
+            self._silent = True
+            try:
+                self.system_toggle.value = self.system
+                self.budget_kind.value = study.budget.kind
+            finally:
+                self._silent = False
+            for f in (self.f_inside, self.f_outside, self.f_area, self.f_budget, self.f_max):
+                f.set_system(self.system)
+            self.f_budget.kind = _BUDGET_KINDS[study.budget.kind]
+            self.f_inside.set_value(study.t_inside)
+            self.f_outside.set_value(study.t_outside)
+            self.f_area.set_value(study.area)
+            self.f_budget.set_value(study.budget.value)
+            self.f_max.set_value(study.max_thickness if study.max_thickness is not None else 0.1)
+            self.picker.set_materials(study.materials)
+            self.picker.set_system(self.system)
+            self.picker.set_chosen([c.name for c in study.candidates if len(c.layers) == 1
+                                    and c.name == c.layers[0].material], notify=False)
+            if study.t_inside != study.t_outside:
+                self._direction = -1.0 if study.t_inside < study.t_outside else 1.0
+            self._set_candidates_ui()
+            self.refresh()
+        except Exception:
+            self.study, self._chosen, self.system = old
+            self._set_candidates_ui()
+            self.refresh()
+            raise
 
     # ---------------------------------------------------------- public helpers
     def set_inputs(self, **texts: str) -> dict[str, str]:

@@ -137,9 +137,8 @@ def compute_view(study: WallStudy, grid: np.ndarray, chosen: int) -> WallView:
         max_flux=max_flux,
         max_thickness=study.max_thickness,
         required=required,
-        # the study broadcasts thicknesses against all candidates: take each one's own
-        mass=np.diagonal(study.mass_per_area(required)).copy(),
-        cost=np.diagonal(study.cost_per_area(required)).copy(),
+        mass=study.design_mass_per_area(required),
+        cost=study.design_cost_per_area(required),
         chosen=chosen,
         profile_x=x,
         profile_t=prof["temperature"].to_numpy(),

@@ -1,0 +1,128 @@
+"""Save, open and recover scenario files from the workbench.
+
+The buttons call :mod:`workbench.scenario` (which holds the file format, the
+atomic writes and the last-used store); this module only collects the file
+name, reports the outcome beside the buttons, and debounces the autosave so a
+slider drag does not write a file on every step.
+"""
+
+from __future__ import annotations
+
+import threading
+from collections.abc import Callable
+
+import ipywidgets as widgets
+
+from workbench import scenario as scenario_files
+from workbench.widgets.fields import LOG, show_message
+
+__all__ = ["ScenarioBar"]
+
+
+class ScenarioBar:
+    """File name, Save / Open / Recover buttons, an overwrite tick box and a message line.
+
+    Parameters
+    ----------
+    current : callable
+        Returns the :class:`~workbench.scenario.Scenario` of what the workbench shows now.
+    open_study : callable
+        ``open_study(study, scenario)`` puts a loaded study into the workbench.
+    autosave_delay : float
+        Seconds of quiet after the last change before the last-used scenario is
+        written (``None`` disables autosave).
+    """
+
+    def __init__(self, current: Callable, open_study: Callable, autosave_delay: float | None = 1.5):
+        self._current = current
+        self._open_study = open_study
+        self._delay = autosave_delay
+        self._timer: threading.Timer | None = None
+        lay = widgets.Layout
+        self.path = widgets.Text(value="wall_scenario.toml", description="Scenario file",
+                                 placeholder="e.g. cold_room.toml", style={"description_width": "100px"},
+                                 layout=lay(width="360px"))
+        self.path.add_class("hw-scenario-path")
+        self.overwrite = widgets.Checkbox(value=False, description="replace an existing file (keeps a .bak)",
+                                          indent=False, layout=lay(width="280px"))
+        self.overwrite.add_class("hw-scenario-overwrite")
+        self.save_button = widgets.Button(description="Save", icon="save", layout=lay(width="90px"))
+        self.open_button = widgets.Button(description="Open", icon="folder-open", layout=lay(width="90px"))
+        self.recover_button = widgets.Button(description="Reopen last used", icon="history",
+                                             tooltip="The scenario last shown here, saved automatically",
+                                             layout=lay(width="160px"))
+        for b, css in ((self.save_button, "hw-scenario-save"), (self.open_button, "hw-scenario-open"),
+                       (self.recover_button, "hw-scenario-recover")):
+            b.add_class(css)
+        self.message = widgets.HTML("")
+        self.message.add_class("hw-scenario-message")
+        self.save_button.on_click(lambda _: self._guard(self.save))
+        self.open_button.on_click(lambda _: self._guard(self.open))
+        self.recover_button.on_click(lambda _: self._guard(self.recover))
+        self.box = widgets.VBox([
+            widgets.HBox([self.path, self.save_button, self.open_button, self.recover_button]),
+            self.overwrite,
+            self.message,
+        ])
+
+    def _guard(self, fn) -> None:
+        try:
+            fn()
+        except (ValueError, OSError) as exc:  # ScenarioError is a ValueError
+            show_message(self.message, str(exc))
+        except Exception as exc:
+            LOG.exception("scenario action failed")
+            show_message(self.message, f"Could not complete ({type(exc).__name__}: {exc}).")
+
+    def save(self) -> None:
+        """Write the shown scenario to the file named in the field."""
+        name = self.path.value.strip()
+        if not name:
+            raise ValueError("scenario file: enter a file name such as cold_room.toml")
+        try:
+            written = scenario_files.save_scenario(self._current(), name, overwrite=self.overwrite.value)
+        except FileExistsError:
+            raise ValueError(f"scenario file: {name} exists; tick 'replace an existing file' to "
+                             "overwrite it (the old one is kept as .bak)") from None
+        show_message(self.message, f"Saved to {written}", ok=True)
+
+    def open(self) -> None:
+        """Load the file named in the field into the workbench."""
+        name = self.path.value.strip()
+        if not name:
+            raise ValueError("scenario file: enter the name of a .toml scenario file")
+        study, scen = scenario_files.open_scenario(name)
+        self._open_study(study, scen)
+        show_message(self.message, f"Opened {name}", ok=True)
+
+    def recover(self) -> None:
+        """Reopen the scenario last shown in any workbench session."""
+        scen = scenario_files.recover_last()
+        if scen is None:
+            raise ValueError("no last-used scenario saved yet")
+        self._open_study(scenario_files.study_from_scenario(scen), scen)
+        show_message(self.message, "Reopened the last-used scenario", ok=True)
+
+    def changed(self) -> None:
+        """Note a change: the last-used scenario is written once the inputs settle."""
+        if self._delay is None:
+            return
+        if self._timer is not None:
+            self._timer.cancel()
+        scen = self._current()  # taken now, so the timer never sees a half-made change
+        self._timer = threading.Timer(self._delay, self._autosave, args=(scen,))
+        self._timer.daemon = True
+        self._timer.start()
+
+    def flush(self) -> None:
+        """Write a pending autosave now (tests, kernel shutdown)."""
+        if self._timer is not None and self._timer.is_alive():
+            self._timer.cancel()
+            self._autosave(self._timer.args[0])
+
+    @staticmethod
+    def _autosave(scen) -> None:
+        try:
+            scenario_files.autosave(scen)
+        except Exception:  # autosave must never disturb the user
+            LOG.exception("autosave failed")
