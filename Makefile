@@ -4,6 +4,8 @@ VENV   := .venv
 PY     := $(VENV)/bin/python
 STAMP  := $(VENV)/.installed-stamp
 PORT   ?= 8866
+# JupyterLab refuses to start as root unless told; these machines run as root.
+ROOT_OK := $(if $(filter 0,$(shell id -u)),--allow-root,)
 
 .PHONY: lab app test bench lint clean notebooks
 
@@ -15,7 +17,7 @@ $(STAMP): pyproject.toml
 
 ## make lab: create .venv, install, open JupyterLab on the quick-start notebook
 lab: $(STAMP)
-	$(VENV)/bin/jupyter lab notebooks/quick_start.ipynb
+	$(VENV)/bin/jupyter lab $(ROOT_OK) notebooks/quick_start.ipynb
 
 ## make app: serve the wall-comparison notebook as a web app on 127.0.0.1 for a meeting
 app: $(STAMP)
