@@ -5,14 +5,21 @@ imports it. Show :class:`Workbench` in one cell::
 
     from workbench.widgets import Workbench
     Workbench()
+
+The shipper and housing studies have their own panels, :class:`ShipperPanel`
+and :class:`HousingPanel`, shown the same way.
 """
 
 from workbench.widgets.app import DEMO_CANDIDATES, DEMO_TITLE, Workbench, demo_study
 from workbench.widgets.charts import sync_figure_state
+from workbench.widgets.housing_panel import HousingPanel
+from workbench.widgets.shipper_panel import ShipperPanel
 from workbench.widgets.runner import Cancelled, TaskRunner, fine_sweep
 
 __all__ = [
     "Workbench",
+    "ShipperPanel",
+    "HousingPanel",
     "demo_study",
     "DEMO_CANDIDATES",
     "DEMO_TITLE",

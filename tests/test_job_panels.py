@@ -1,0 +1,272 @@
+"""Headless tests of the shipper and housing panels (workbench.widgets.*_panel).
+
+The panels are driven as a user would: sliders moved, text typed with units,
+the display system switched. Expected numbers are computed here from fresh
+study objects (the panels' own numbers are never copied), with the typed
+values converted by factors from outside the project:
+
+* scipy.constants (CODATA 2018 / NIST SP 811 (2008) Appendix B.8): pound =
+  0.45359237 kg (exact), hour = 3600 s, Btu = 1055.05585262 J (International
+  Table Btu), and ``convert_temperature`` for °F ↔ K (°F = °C·9/5 + 32).
+"""
+
+from __future__ import annotations
+
+import dataclasses
+
+import numpy as np
+import pytest
+from numpy.testing import assert_allclose
+from scipy import constants
+
+from workbench.widgets.housing_panel import HousingPanel, demo_housing_study, with_power
+from workbench.widgets.shipper_panel import ShipperPanel, demo_shipper_study
+
+
+def _f_to_k(value_f: float) -> float:
+    return float(constants.convert_temperature(value_f, "Fahrenheit", "Kelvin"))
+
+
+def _k_to_f(value_k):
+    return constants.convert_temperature(np.asarray(value_k, float), "Kelvin", "Fahrenheit")
+
+
+# ------------------------------------------------------------------- shipper
+@pytest.fixture(scope="module")
+def ship_study():
+    return demo_shipper_study()
+
+
+@pytest.fixture
+def ship(ship_study):
+    return ShipperPanel(ship_study, coolant_mass=3.0)
+
+
+def _hold_y(panel, name):
+    i = panel.study.names.index(name)
+    return np.asarray(panel.fig_hold.data[i].y, float)
+
+
+def test_shipper_default_is_demo_with_data_and_cautions():
+    p = ShipperPanel()
+    assert "DEMO — invented numbers" in p.header.value
+    assert "hw-shipper" in p._dom_classes
+    n_thk = p.study.thicknesses.size
+    for i in range(len(p.study.names)):
+        assert len(p.fig_hold.data[i].y) == n_thk
+        assert len(p.fig_cost.data[i].y) == n_thk
+        assert np.all(np.isfinite(np.asarray(p.fig_cost.data[i].y, float)))
+    text = p.cautions.value.lower()
+    assert "frozen" in text and "2–8 °c" in text
+    assert "dry ice" in text and "dangerous goods" in text and "ventilate" in text
+    assert "qualified by testing" in text
+    assert "[mm]" in p.fig_hold.layout.xaxis.title.text and "[h]" in p.fig_hold.layout.yaxis.title.text
+    assert "[EUR]" in p.fig_cost.layout.yaxis.title.text
+    assert "[mm]" in p.table.value and "[kg]" in p.table.value
+
+
+def test_shipper_slider_moves_markers_in_place(ship, ship_study):
+    fig, marks = ship.fig_hold, ship.fig_hold.data[-1]
+    before = np.asarray(marks.y, float).copy()
+    ship.slider.value = 0.03
+    assert ship.fig_hold is fig and ship.fig_hold.data[-1] is marks
+    after = np.asarray(marks.y, float)
+    assert not np.allclose(before, after)
+    # independent: the study's own hold curve with 3 kg of coolant, at 30 mm (hours)
+    curve = ship_study.hold_curve(3.0)
+    expected = curve[np.isclose(curve["thickness"], 0.03)]["hold_time_simulated"].to_numpy() / constants.hour
+    assert_allclose(after, expected, rtol=1e-9)
+    assert ship.fig_cost.layout.shapes[0].x0 == pytest.approx(30.0)
+
+
+def test_shipper_coolant_mass_in_pounds_updates_hold_chart(ship, ship_study):
+    fig, trace = ship.fig_hold, ship.fig_hold.data[0]
+    before = np.asarray(trace.y, float).copy()
+    assert ship.set_inputs(coolant_mass="8 lb") == {"coolant_mass": ""}
+    assert ship.fig_hold is fig and ship.fig_hold.data[0] is trace
+    curve = ship_study.hold_curve(8 * constants.pound)  # lb -> kg, exact
+    name = ship_study.names[0]
+    expected = curve[curve["candidate"] == name]["hold_time_simulated"].to_numpy() / constants.hour
+    assert not np.allclose(before, expected)
+    assert_allclose(_hold_y(ship, name), expected, rtol=1e-9)
+
+
+def test_shipper_target_and_rate_recompute_costs(ship, ship_study):
+    star = ship.fig_cost.data[len(ship_study.names)]
+    line_before = np.asarray(ship.fig_cost.data[1].y, float).copy()
+    assert ship.set_inputs(duration="36 h", rate="0.9 EUR/lb") == {"duration": "", "rate": ""}
+    assert ship.fig_cost.data[len(ship_study.names)] is star
+    ref = dataclasses.replace(ship_study, duration=36 * constants.hour,
+                              rate_per_kg=0.9 / constants.pound).results()
+    assert ship.study.rate_per_kg == pytest.approx(0.9 / constants.pound)
+    opt = ref.optimum[ref.optimum["meets_target"].astype(bool)]
+    assert_allclose(np.asarray(star.y, float), opt["landed_cost"].to_numpy(float), rtol=1e-9)
+    assert_allclose(np.asarray(star.x, float), opt["thickness"].to_numpy(float) * 1000, rtol=1e-9)
+    name = ship_study.names[1]
+    g = ref.sweep[ref.sweep["candidate"] == name]
+    assert not np.allclose(line_before, g["landed_cost"].to_numpy(float))
+    assert_allclose(np.asarray(ship.fig_cost.data[1].y, float), g["landed_cost"].to_numpy(float), rtol=1e-9)
+
+
+def test_shipper_ambient_in_fahrenheit_shifts_profile(ship, ship_study):
+    assert ship.set_inputs(ambient="95 °F") == {"ambient": ""}
+    times, temps = ship_study.t_ambient
+    shifted = (times, temps + (_f_to_k(95.0) - temps.max()))
+    ref = dataclasses.replace(ship_study, t_ambient=shifted).hold_curve(3.0)
+    name = ship_study.names[2]
+    expected = ref[ref["candidate"] == name]["hold_time_simulated"].to_numpy() / constants.hour
+    assert_allclose(_hold_y(ship, name), expected, rtol=1e-9)
+
+
+def test_shipper_bad_input_keeps_last_result(ship):
+    hold = [np.asarray(t.y, float).copy() for t in ship.fig_hold.data]
+    cost = [np.asarray(t.y, float).copy() for t in ship.fig_cost.data]
+    study = ship.study
+    msg = ship.set_inputs(ambient="3 kg")["ambient"]
+    assert "hottest ambient" in msg and "temperature" in msg
+    assert "3 kg" in ship.f_ambient.message.value and "Traceback" not in ship.f_ambient.message.value
+    msg = ship.set_inputs(duration="-5 h")["duration"]  # the study rejects it
+    assert "duration" in msg
+    assert ship.study is study
+    for old, tr in zip(hold, ship.fig_hold.data, strict=True):
+        assert np.array_equal(old, np.asarray(tr.y, float))
+    for old, tr in zip(cost, ship.fig_cost.data, strict=True):
+        assert np.array_equal(old, np.asarray(tr.y, float))
+
+
+def test_shipper_constant_ambient_and_toggle(ship_study):
+    small = dataclasses.replace(ship_study, candidates=ship_study.candidates[:2], t_ambient=298.15,
+                                thicknesses=np.array([0.02, 0.04, 0.06]))
+    p = ShipperPanel(small)
+    assert "DEMO" not in p.header.value
+    assert p.f_ambient.text.value == "25.0 °C"
+    assert p.set_inputs(ambient="30 °C") == {"ambient": ""}
+    assert p.study.t_ambient == pytest.approx(303.15)
+    p.system_toggle.value = "US"  # the toggle drives set_system
+    assert p.system == "US" and "[in]" in p.fig_hold.layout.xaxis.title.text
+
+
+def test_shipper_us_system_relabels(ship, ship_study):
+    y_h = np.asarray(ship.fig_hold.data[0].x, float).copy()
+    ship.set_system("US")
+    assert "[in]" in ship.fig_hold.layout.xaxis.title.text
+    assert "[in]" in ship.fig_cost.layout.xaxis.title.text
+    assert "[lb]" in ship.table.value and "[in]" in ship.table.value
+    assert ship.f_ambient.text.value.endswith("°F")
+    assert float(ship.f_ambient.text.value.split()[0]) == pytest.approx(
+        float(_k_to_f(ship_study.t_ambient[1].max())), abs=0.05)
+    assert_allclose(np.asarray(ship.fig_hold.data[0].x, float), y_h / 25.4, rtol=1e-12)  # 1 in = 25.4 mm
+    assert ship.slider.label.endswith("in")
+    ship.slider.value = 0.05
+    assert ship.fig_hold.layout.shapes[0].x0 == pytest.approx(0.05 / 0.0254)
+
+
+# ------------------------------------------------------------------- housing
+@pytest.fixture(scope="module")
+def house_study():
+    return demo_housing_study()
+
+
+@pytest.fixture
+def house(house_study):
+    return HousingPanel(house_study)
+
+
+def _share(study):
+    return study.component.power / study.power
+
+
+def test_housing_default_is_demo_with_data_and_cautions():
+    p = HousingPanel()
+    assert "DEMO — invented numbers" in p.header.value
+    assert "hw-housing" in p._dom_classes
+    n = len(p.study.names)
+    for i in range(n):
+        assert len(p.fig_eps.data[i].y) == p.emissivities.size
+        assert len(p.fig_pow.data[i].y) > 10
+    text = p.cautions.value.lower()
+    assert "product standard" in text and "testing" in text and "first-order" in text
+    assert "°C" in p.fig_eps.layout.yaxis.title.text and "[W]" in p.fig_pow.layout.xaxis.title.text
+    assert "pass" in p.table.value and "Margin" in p.table.value
+
+
+def test_housing_power_field_updates_in_place(house, house_study):
+    fig, trace = house.fig_eps, house.fig_eps.data[0]
+    before = np.asarray(trace.y, float).copy()
+    assert house.set_inputs(power="4 W") == {"power": ""}
+    assert house.fig_eps is fig and house.fig_eps.data[0] is trace
+    ref_study = with_power(house_study, 4.0, _share(house_study))
+    assert ref_study.component.power == pytest.approx(0.8 * 4 / 3)
+    eps = ref_study.emissivity_sweep(house.emissivities)
+    name = house_study.names[0]
+    expected = eps[eps["candidate"] == name]["t_surface"].to_numpy() - 273.15
+    assert not np.allclose(before, expected)
+    assert_allclose(np.asarray(trace.y, float), expected, rtol=1e-9)
+    res = ref_study.results()
+    current = house.fig_pow.data[-1]
+    assert_allclose(np.asarray(current.y, float), res["t_hot_spot"].to_numpy() - 273.15, rtol=1e-9)
+    assert house.slider.value == pytest.approx(4.0)
+
+
+@pytest.mark.filterwarnings("ignore::workbench._checks.ValidityWarning")
+def test_housing_slider_moves_current_point(house, house_study):
+    marks = house.fig_pow.data[-1]
+    before = np.asarray(marks.y, float).copy()
+    house.slider.value = 2.0
+    assert house.fig_pow.data[-1] is marks
+    res = with_power(house_study, 2.0, _share(house_study)).results()
+    assert not np.allclose(before, np.asarray(marks.y, float))
+    assert_allclose(np.asarray(marks.y, float), res["t_hot_spot"].to_numpy() - 273.15, rtol=1e-9)
+    assert house.fig_pow.layout.shapes[0].x0 == pytest.approx(2.0)
+    assert house.f_power.text.value.startswith("2")
+
+
+def test_housing_ambient_in_fahrenheit(house, house_study):
+    assert house.set_inputs(ambient="86 °F") == {"ambient": ""}
+    ref = dataclasses.replace(house_study, t_ambient=_f_to_k(86.0))
+    sweep = ref.power_sweep(np.linspace(house.power_max / 41, house.power_max, 41))
+    name = house_study.names[5]
+    expected = sweep[sweep["candidate"] == name]["t_hot_spot"].to_numpy() - 273.15
+    assert_allclose(np.asarray(house.fig_pow.data[5].y, float), expected, rtol=1e-9)
+
+
+def test_housing_bad_input_keeps_last_result(house):
+    eps = [np.asarray(t.y, float).copy() for t in house.fig_eps.data]
+    pw = [np.asarray(t.y, float).copy() for t in house.fig_pow.data]
+    study = house.study
+    msg = house.set_inputs(ambient="3 kg")["ambient"]
+    assert "ambient temperature" in msg and "temperature" in msg
+    assert "3 kg" in house.f_ambient.message.value
+    msg = house.set_inputs(contact="1 s")["contact"]  # shorter than any tabulated contact: the study rejects it
+    assert "contact" in msg
+    assert house.study is study
+    for old, tr in zip(eps, house.fig_eps.data, strict=True):
+        assert np.array_equal(old, np.asarray(tr.y, float))
+    for old, tr in zip(pw, house.fig_pow.data, strict=True):
+        assert np.array_equal(old, np.asarray(tr.y, float))
+
+
+def test_housing_without_component_uses_mean_surface(house_study):
+    study = dataclasses.replace(house_study, candidates=house_study.candidates[:3], component=None)
+    p = HousingPanel(study)
+    res = study.results()
+    assert_allclose(np.asarray(p.fig_pow.data[-1].y, float), res["t_surface"].to_numpy() - 273.15, rtol=1e-9)
+    p.system_toggle.value = "US"
+    assert "[°F]" in p.fig_pow.layout.yaxis.title.text
+
+
+def test_housing_us_system_relabels(house, house_study):
+    house.set_system("US")
+    assert "[°F]" in house.fig_eps.layout.yaxis.title.text
+    assert "[°F]" in house.fig_pow.layout.yaxis.title.text
+    assert "[Btu/h]" in house.fig_pow.layout.xaxis.title.text
+    assert "[°F]" in house.table.value and "[in]" in house.table.value
+    res = house_study.results()
+    n = len(house_study.names)
+    limit = house.fig_eps.data[n]  # first touch-limit line
+    cls = house.classes[0]
+    lim_k = float(res.loc[res["touch_class"] == cls, "touch_limit"].iloc[0])
+    assert_allclose(limit.y, [_k_to_f(lim_k)] * 2, rtol=1e-12)
+    btu_per_h = constants.Btu / constants.hour  # W
+    assert house.slider.value == pytest.approx(house_study.power / btu_per_h, rel=1e-9)
+    assert house.f_ambient.text.value.endswith("°F")

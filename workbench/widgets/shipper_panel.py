@@ -1,0 +1,504 @@
+"""Interactive panel for the insulated-shipper study (hold time and landed cost).
+
+:class:`ShipperPanel` is an ipywidgets ``VBox``. It holds a
+:class:`~workbench.studies.shipper.ShipperStudy`; every number it shows comes
+from the study's own methods (:meth:`~ShipperStudy.results` for the sized
+designs and their landed cost, :meth:`~ShipperStudy.hold_curve` for the hold
+time with a fixed coolant mass). The panel converts units and draws.
+
+A full recompute takes about a second (every design is simulated), so it runs
+when an input field changes (on Enter or leaving the field); the thickness
+slider only moves the markers and the table columns "at the current
+thickness", from the frames already computed.
+"""
+
+from __future__ import annotations
+
+import dataclasses
+import html
+import time
+
+import ipywidgets as widgets
+import numpy as np
+import pandas as pd
+import plotly.graph_objects as go
+
+from workbench import units
+from workbench.studies.shipper import ShipperStudy
+from workbench.widgets import style
+from workbench.widgets.charts import _affine, _base_layout, _num, sync_figure_state
+from workbench.widgets.fields import LOG, UnitField, show_message
+
+__all__ = ["ShipperPanel", "demo_shipper_study", "SHIPPER_PANEL_CAUTIONS", "CostField"]
+
+DEMO_BADGE = "DEMO — invented numbers"
+SHIPPER_DEMO_TITLE = "Demo (invented): 2–8 °C laboratory kit on a two-day summer route"
+
+#: Always shown above the charts (our wording); the study's own cautions follow it.
+SHIPPER_PANEL_CAUTIONS = (
+    "Frozen water-ice packs can freeze a 2–8 °C payload: condition the packs and keep them out of "
+    "direct contact with the payload.",
+    "Dry ice sublimes to CO₂ gas: never seal it gas-tight (the box can burst), ventilate vehicles and "
+    "rooms (asphyxiation risk), and ship it as dangerous goods under the carrier's and air-transport rules.",
+    "These are design estimates: packaging for medicines and other temperature-sensitive goods is "
+    "qualified by testing (thermal chamber and field trials) under the applicable distribution rules.",
+)
+
+
+def demo_shipper_study() -> ShipperStudy:
+    """The invented demo scenario of ``notebooks/shipper.ipynb`` (all product data made up)."""
+    from workbench.air_layers import AirLayer
+    from workbench.geometry import VacuumPanel
+    from workbench.materials import load_materials
+    from workbench.studies.shipper import ShipperCandidate
+    from workbench.studies.wall import Layer
+
+    materials = load_materials()
+    hours = np.array([0, 6, 10, 16, 22, 30, 34, 40, 46])
+    temps_c = np.array([22, 30, 35, 28, 20, 30, 38, 28, 24])
+    profile = (hours * 3600.0, temps_c + 273.15)
+    carton = Layer("corrugated_single_wall", 0.004)
+    foil_gap = AirLayer(0.010, "horizontal", 0.05, 0.05)
+    candidates = [
+        ShipperCandidate("EPS 20", (Layer("eps_20"), carton)),
+        ShipperCandidate("PIR 32", (Layer("pir_32"), carton)),
+        ShipperCandidate("EPS + air gap", (Layer("eps_20"), AirLayer(0.010, "horizontal"), carton)),
+        ShipperCandidate("EPS + foil-faced gap", (Layer("eps_20"), foil_gap, carton)),
+        ShipperCandidate("VIP 20 mm + EPS", (VacuumPanel(0.020, 0.0042, 0.40, 0.30, 0.008), Layer("eps_20"), carton)),
+        ShipperCandidate("PIR + foil-faced gap", (Layer("pir_32"), foil_gap, carton)),
+    ]
+    return ShipperStudy(
+        candidates, materials, coolant="pcm_plus5",
+        payload_length=0.30, payload_width=0.20, payload_height=0.15, payload_mass=3.0,
+        payload_specific_heat=3500.0, t_payload_min=275.15, t_payload_max=281.15, t_payload_start=278.15,
+        t_ambient=profile, duration=48 * 3600.0, thicknesses=np.round(np.arange(0.01, 0.1001, 0.005), 4),
+        safety_factor=1.2, divisor=0.005, mass_increment=0.5, rate_per_kg=1.50, fixed_fee=5.0,
+    )
+
+
+# ---------------------------------------------------------------- shared bits
+def section(text: str) -> widgets.HTML:
+    return widgets.HTML(f'<div class="hw-section">{html.escape(text)}</div>')
+
+
+def header_html(title: str, demo: bool, subtitle: str) -> str:
+    badge = f'<span class="hw-badge">{DEMO_BADGE}</span>' if demo else ""
+    return (f'{style.CSS}<div class="hw-title">{html.escape(title)}{badge}</div>'
+            f'<div class="hw-subtitle">{html.escape(subtitle)}</div>')
+
+
+def cautions_html(fixed, extra=()) -> str:
+    items = list(dict.fromkeys([*fixed, *extra]))
+    body = "".join(f"<li>{html.escape(str(c))}</li>" for c in items)
+    return f'<div class="hw-cautions"><b>Cautions:</b><ul style="margin:2px 0 2px 18px;padding:0">{body}</ul></div>'
+
+
+def conv(values, kind: str, system: str) -> np.ndarray:
+    """SI → display unit of ``system`` (affine, vectorised)."""
+    a, b = _affine(kind, system)
+    return np.asarray(values, float) * a + b
+
+
+def cell(value, kind: str | None, system: str, currency: str | None = None) -> str:
+    """One table cell: 3 significant figures in the display unit (temperatures with 1 decimal)."""
+    if kind is None:
+        return f'<td class="hw-l">{html.escape(str(value))}</td>'
+    try:
+        v = float(value)
+    except (TypeError, ValueError):
+        return "<td>n/a</td>"
+    if not np.isfinite(v):
+        return "<td>n/a</td>"
+    if kind == "currency":
+        return f"<td>{_num(v)}</td>"
+    x = float(conv(v, kind, system))
+    return f"<td>{f'{x:.1f}' if kind == 'temperature' else _num(x)}</td>"
+
+
+def header_cell(title: str, kind: str | None, system: str, currency: str | None = None) -> str:
+    if kind is None:
+        return f'<th class="hw-l">{html.escape(title)}</th>'
+    if kind == "flag":
+        return f"<th>{html.escape(title)}</th>"
+    unit = (currency or "¤") if kind == "currency" else units.display_unit(kind, system, currency)
+    return f"<th>{html.escape(title)} [{html.escape(unit or '–')}]</th>"
+
+
+def flag_cell(ok: bool, yes: str = "✓ yes", no: str = "✗ no") -> str:
+    return f"<td>{yes}</td>" if ok else f'<td class="hw-bad">{no}</td>'
+
+
+def guard(status: widgets.HTML, fn, *args):
+    """Run an event handler; show any problem in ``status``, never raise into the notebook."""
+    try:
+        return fn(*args)
+    except ValueError as exc:
+        show_message(status, str(exc))
+    except Exception as exc:
+        LOG.exception("panel event failed")
+        show_message(status, f"Something went wrong ({type(exc).__name__}: {exc}); the last good result is shown.")
+    return None
+
+
+class CostField(UnitField):
+    """A :class:`UnitField` for a cost kind with its currency (``"1.5 EUR/kg"``, ``"0.7 EUR/lb"``)."""
+
+    def __init__(self, label, kind, field, value_si, on_change, system="SI", css="", currency="EUR"):
+        self.currency = currency
+        super().__init__(label, kind, field, value_si, on_change, system, css)
+
+    def _write(self, value_si: float) -> None:
+        self._silent = True
+        try:
+            self.text.value = units.format_quantity(value_si, self.kind, self.system, sig=4, currency=self.currency)
+        finally:
+            self._silent = False
+
+    def _changed(self, change) -> None:
+        if self._silent:
+            return
+        default = units.display_unit(self.kind, self.system, self.currency).replace("·", "*")
+        try:
+            value, _ = units.parse_cost(change["new"], self.kind, self.field, default_unit=default,
+                                        currency=self.currency)
+            self._on_change(value)
+        except ValueError as exc:
+            LOG.info("input %s rejected: %s", self.field, exc)
+            self._set_error(str(exc) if str(exc).startswith(self.field) else f"{self.field}: {exc}")
+            return
+        except Exception as exc:
+            LOG.exception("input %s failed", self.field)
+            self._set_error(f"{self.field}: could not apply this value ({type(exc).__name__}: {exc})")
+            return
+        self.value_si = value
+        self._set_error("")
+
+
+def _peak(t_ambient) -> float:
+    if isinstance(t_ambient, tuple | list):
+        return float(np.max(t_ambient[1]))
+    return float(t_ambient)
+
+
+def _shift_to_peak(t_ambient, peak: float):
+    """The ambient with its hottest value moved to ``peak`` [K], shape kept."""
+    if isinstance(t_ambient, tuple | list):
+        times, temps = t_ambient
+        temps = np.asarray(temps, float)
+        return (np.asarray(times, float), temps + (peak - float(temps.max())))
+    return float(peak)
+
+
+class ShipperPanel(widgets.VBox):
+    """Hold time and landed cost of insulated-shipper build-ups, shown in one cell.
+
+    Parameters
+    ----------
+    study : ShipperStudy, optional
+        Default: the invented demo study of the shipper notebook, labelled as a demo.
+    system : {"SI", "US"}
+        Initial display system.
+    title : str, optional
+        Heading.
+    coolant_mass : float, optional
+        Fixed coolant mass of the hold-time chart [kg]; default 3 kg for the
+        demo, else the median coolant mass of the cheapest designs (2 figures).
+
+    Notes
+    -----
+    Inputs: required hold time, hottest ambient (the ambient profile keeps its
+    shape), coolant mass for the hold-time chart, freight rate per billable
+    mass. Bad input shows a message beside its field and keeps the last good
+    result; errors go to the ``workbench.widgets`` logger.
+    """
+
+    def __init__(self, study: ShipperStudy | None = None, system: str = "SI", title: str | None = None,
+                 coolant_mass: float | None = None):
+        units.check_system(system)
+        demo = study is None
+        self.study = demo_shipper_study() if study is None else study
+        if not isinstance(self.study, ShipperStudy):
+            raise ValueError(f"study: expected a ShipperStudy, got {type(self.study).__name__}")
+        self.system = system
+        self.demo = demo
+        self.title = title or (SHIPPER_DEMO_TITLE if demo else "Insulated shipper comparison")
+        cur = sorted({str(c).strip() for c in self.study.materials.get("currency", pd.Series(dtype=str)).dropna()}
+                     - {""})
+        self.currency = cur[0] if len(cur) == 1 else "EUR"
+        self.timings: dict[str, float] = {}
+        t0 = time.perf_counter()
+        self.results = self.study.results()
+        t1 = time.perf_counter()
+        if coolant_mass is not None:
+            mass = float(coolant_mass)
+            if not (np.isfinite(mass) and mass > 0):
+                raise ValueError(f"coolant_mass: must be a positive mass in kg, got {coolant_mass!r}")
+        elif demo:
+            mass = 3.0
+        else:
+            m = self.results.optimum["coolant_mass"].to_numpy(float)
+            m = m[np.isfinite(m)]
+            mass = float(f"{np.median(m):.2g}") if m.size else 1.0
+        self.coolant_mass = mass
+        self.curve = self.study.hold_curve(mass)
+        self.timings = {"results": t1 - t0, "hold_curve": time.perf_counter() - t1}
+        ok = self.results.optimum["thickness"].to_numpy(float)
+        self.thickness = float(self.study.thicknesses[0])
+        if np.isfinite(ok).any():
+            self.thickness = float(np.nanmin(ok))
+        self._silent = False
+        self._build()
+        self._redraw()
+        super().__init__(children=self._children)
+        self.add_class("hw-root")
+        self.add_class("hw-shipper")
+
+    # ------------------------------------------------------------------ build
+    def _build(self) -> None:
+        s, w = self.study, widgets.Layout
+        self.header = widgets.HTML(header_html(
+            self.title, self.demo,
+            "Which wall build-up keeps the payload in range for the target time at the lowest landed "
+            "cost per shipment? Inputs accept units (48 h, 35 °C, 95 °F, 3 kg, 1.5 EUR/kg)."),
+            layout=w(flex="1 1 auto"))
+        self.system_toggle = widgets.ToggleButtons(options=[("SI", "SI"), ("US customary", "US")],
+                                                   value=self.system, style={"button_width": "112px"})
+        self.system_toggle.add_class("hw-shipper-system")
+        self.cautions = widgets.HTML("")
+        self.cautions.add_class("hw-shipper-cautions")
+        self.status = widgets.HTML("")
+        self.status.add_class("hw-shipper-status")
+        sys_ = self.system
+        self.f_duration = UnitField("Target hold", "time", "target hold time", s.duration,
+                                    lambda v: self._apply(duration=v), sys_, "hw-shipper-duration")
+        self.f_ambient = UnitField("Hottest ambient", "temperature", "hottest ambient", _peak(s.t_ambient),
+                                   lambda v: self._apply(t_ambient=_shift_to_peak(self.study.t_ambient, v)),
+                                   sys_, "hw-shipper-ambient")
+        self.f_coolant = UnitField("Coolant (chart)", "mass", "coolant mass", self.coolant_mass,
+                                   self._set_coolant_mass, sys_, "hw-shipper-coolant")
+        self.f_rate = CostField("Freight rate", "cost_per_mass", "freight rate", s.rate_per_kg,
+                                lambda v: self._apply(rate_per_kg=v), sys_, "hw-shipper-rate", self.currency)
+        self.slider = widgets.SelectionSlider(options=self._slider_options(), value=self.thickness,
+                                              description="Insulation", continuous_update=True,
+                                              style={"description_width": "118px"}, layout=w(width="330px"))
+        self.slider.add_class("hw-shipper-thickness")
+        hint = widgets.HTML('<div class="hw-hint">The ambient profile keeps its shape; its hottest step moves '
+                            "to the value typed. The hold-time runs stop at twice the target. The coolant mass sets the hold-time chart only (the cost chart "
+                            "sizes the coolant for the target). A change of a field recomputes every design "
+                            "(about a second); the slider only moves the markers.</div>")
+        self.fig_hold = go.FigureWidget(layout=_base_layout(
+            "Hold time with a fixed coolant mass", 470, 340, showlegend=True,
+            legend=dict(font=dict(size=10), bgcolor="rgba(255,255,255,0.75)"),
+            shapes=[dict(type="line", xref="x", yref="paper", x0=0, x1=0, y0=0, y1=1,
+                         line=dict(color="#495057", width=1, dash="dot"))]))
+        self.fig_cost = go.FigureWidget(layout=_base_layout(
+            "Landed cost per shipment (coolant sized for the target)", 470, 340, showlegend=True,
+            legend=dict(font=dict(size=10), bgcolor="rgba(255,255,255,0.75)"),
+            shapes=[dict(type="line", xref="x", yref="paper", x0=0, x1=0, y0=0, y1=1,
+                         line=dict(color="#495057", width=1, dash="dot"))]))
+        self.fig_hold.add_class("hw-shipper-chart-hold")
+        self.fig_cost.add_class("hw-shipper-chart-cost")
+        n = len(s.names)
+        hold_traces = [go.Scatter(name=nm, mode="lines", line=dict(width=2, color=style.candidate_colour(i)))
+                       for i, nm in enumerate(s.names)]
+        hold_traces.append(go.Scatter(name="target", mode="lines", line=dict(color=style.BUDGET, width=2, dash="dash")))
+        hold_traces.append(go.Scatter(name="at current thickness", mode="markers", showlegend=False,
+                                      text=s.names, marker=dict(size=8, color="#212529", symbol="circle-open")))
+        self.fig_hold.add_traces(hold_traces)
+        cost_traces = [go.Scatter(name=nm, mode="lines+markers", line=dict(width=2, color=style.candidate_colour(i)),
+                                  marker=dict(size=6)) for i, nm in enumerate(s.names)]
+        cost_traces.append(go.Scatter(name="cheapest that holds", mode="markers", text=s.names,
+                                      marker=dict(size=15, symbol="star", color=style.ACCENT,
+                                                  line=dict(color=style.ACCENT_EDGE, width=1))))
+        cost_traces.append(go.Scatter(name="at current thickness", mode="markers", showlegend=False,
+                                      text=s.names, marker=dict(size=9, color="#212529", symbol="circle-open")))
+        self.fig_cost.add_traces(cost_traces)
+        self._n = n
+        self.table = widgets.HTML("")
+        self.table.add_class("hw-table")
+        self.table.add_class("hw-shipper-table")
+        left = widgets.VBox([section("Conditions"), self.f_duration.box, self.f_ambient.box, self.f_coolant.box,
+                             self.f_rate.box, section("Insulation thickness"), self.slider, hint],
+                            layout=w(width="350px", min_width="350px", margin="0 12px 0 0"))
+        left.add_class("hw-panel")
+        left.add_class("hw-shipper-inputs")
+        charts = widgets.HBox([self.fig_hold, self.fig_cost], layout=w(flex_flow="row wrap"))
+        self._children = [
+            widgets.HBox([self.header, self.system_toggle], layout=w(align_items="center")),
+            self.cautions, self.status,
+            widgets.HBox([left, charts], layout=w(flex_flow="row wrap", align_items="flex-start")),
+            section("Results per build-up"), self.table,
+        ]
+        self.system_toggle.observe(self._toggled, "value")
+        self.slider.observe(self._slid, "value")
+
+    def _toggled(self, change) -> None:
+        if not self._silent:
+            guard(self.status, self.set_system, change["new"])
+
+    def _slider_options(self):
+        return [(units.format_quantity(t, "thickness", self.system), float(t)) for t in self.study.thicknesses]
+
+    # ---------------------------------------------------------------- inputs
+    def _apply(self, **changes) -> None:
+        """Recompute with changed study inputs; raises ValueError (shown by the field) if rejected."""
+        new = dataclasses.replace(self.study, **changes)
+        t0 = time.perf_counter()
+        results = new.results()
+        t1 = time.perf_counter()
+        curve = new.hold_curve(self.coolant_mass)
+        self.study, self.results, self.curve = new, results, curve
+        self.timings = {"results": t1 - t0, "hold_curve": time.perf_counter() - t1}
+        self._redraw()
+
+    def _set_coolant_mass(self, mass: float) -> None:
+        t0 = time.perf_counter()
+        curve = self.study.hold_curve(mass)
+        self.coolant_mass, self.curve = float(mass), curve
+        self.timings = {"hold_curve": time.perf_counter() - t0}
+        self._redraw()
+
+    def _slid(self, change) -> None:
+        if self._silent or change["new"] is None:
+            return
+        guard(self.status, self._set_thickness, float(change["new"]))
+
+    def _set_thickness(self, thickness: float) -> None:
+        self.thickness = thickness
+        self._draw_marks()
+        self._draw_table()
+
+    def set_system(self, system: str) -> None:
+        """Show every value in ``system`` ("SI" or "US"): fields, slider, axes, table."""
+        units.check_system(system)
+        self.system = system
+        for f in self._fields():
+            f.set_system(system)
+        self._silent = True
+        try:
+            self.slider.options = self._slider_options()
+            self.slider.value = self.thickness
+            if self.system_toggle.value != system:
+                self.system_toggle.value = system
+        finally:
+            self._silent = False
+        self._redraw()
+
+    def set_inputs(self, **texts: str) -> dict[str, str]:
+        """Type text into fields by name (``duration``, ``ambient``, ``coolant_mass``, ``rate``);
+        returns each field's message ("" if accepted)."""
+        fields = dict(zip(("duration", "ambient", "coolant_mass", "rate"), self._fields(), strict=True))
+        out = {}
+        for name, text in texts.items():
+            if name not in fields:
+                raise ValueError(f"set_inputs: unknown field {name!r}; valid: {list(fields)}")
+            fields[name].text.value = text
+            out[name] = fields[name].error
+        return out
+
+    def _fields(self):
+        return (self.f_duration, self.f_ambient, self.f_coolant, self.f_rate)
+
+    # ---------------------------------------------------------------- drawing
+    def _redraw(self) -> None:
+        s, sys_, sw, opt = self.study, self.system, self.results.sweep, self.results.optimum
+        hours = "time"
+        x_label = units.axis_label("thickness", sys_, name="Insulation thickness (sized layer)")
+        with self.fig_hold.batch_update(), self.fig_cost.batch_update():
+            ut, uh = units.display_unit("thickness", sys_), units.display_unit(hours, sys_)
+            for i, name in enumerate(s.names):
+                c = self.curve[self.curve["candidate"] == name]
+                tr = self.fig_hold.data[i]
+                tr.x = conv(c["thickness"], "thickness", sys_)
+                tr.y = conv(c["hold_time_simulated"], hours, sys_)
+                tr.hovertemplate = (f"<b>{html.escape(name)}</b><br>L = %{{x:.3g}} {ut}<br>"
+                                    f"hold = %{{y:.3g}} {uh}<extra></extra>")
+                g = sw[sw["candidate"] == name]
+                tc = self.fig_cost.data[i]
+                tc.x = conv(g["thickness"], "thickness", sys_)
+                tc.y = g["landed_cost"].to_numpy(float)
+                tc.marker.symbol = np.where(g["meets_target"].to_numpy(bool), "circle", "circle-open").tolist()
+                tc.customdata = np.column_stack([conv(g["coolant_mass"], "mass", sys_),
+                                                 conv(g["hold_time_simulated"], hours, sys_)])
+                tc.hovertemplate = (f"<b>{html.escape(name)}</b><br>L = %{{x:.3g}} {ut}<br>landed cost "
+                                    f"%{{y:.3g}} {self.currency}<br>coolant %{{customdata[0]:.3g}} "
+                                    f"{units.display_unit('mass', sys_)}<br>hold %{{customdata[1]:.3g}} {uh}"
+                                    "<extra></extra>")
+            xs = conv(s.thicknesses, "thickness", sys_)
+            target = self.fig_hold.data[self._n]
+            target.x = [float(xs.min()), float(xs.max())]
+            target.y = [float(conv(s.duration, hours, sys_))] * 2
+            target.name = f"target {units.format_quantity(s.duration, hours, sys_)}"
+            star = self.fig_cost.data[self._n]
+            holds = opt["meets_target"].astype(bool).to_numpy()
+            star.x = conv(opt["thickness"].to_numpy(float)[holds], "thickness", sys_)
+            star.y = opt["landed_cost"].to_numpy(float)[holds]
+            star.text = [n for n, h in zip(opt.index, holds, strict=True) if h]
+            star.hovertemplate = f"cheapest that holds: %{{text}}<br>L = %{{x:.3g}} {ut}<br>%{{y:.3g}} {self.currency}<extra></extra>"
+            self.fig_hold.layout.xaxis.title.text = x_label
+            self.fig_cost.layout.xaxis.title.text = x_label
+            self.fig_hold.layout.yaxis.title.text = units.axis_label(hours, sys_, name="Hold time (simulated)")
+            self.fig_cost.layout.yaxis.title.text = f"Landed cost per shipment [{self.currency}]"
+            self.fig_hold.layout.title.text = (
+                f"Hold time with {units.format_quantity(self.coolant_mass, 'mass', sys_)} of coolant")
+        self._draw_marks()
+        self._draw_table()
+        self.cautions.value = cautions_html(SHIPPER_PANEL_CAUTIONS, self.results.cautions)
+        show_message(self.status, "")
+
+    def _draw_marks(self) -> None:
+        sys_, th = self.system, self.thickness
+        x = float(conv(th, "thickness", sys_))
+        at_h = self.curve[np.isclose(self.curve["thickness"], th)]
+        sw = self.results.sweep
+        at_c = sw[np.isclose(sw["thickness"], th)]
+        with self.fig_hold.batch_update(), self.fig_cost.batch_update():
+            for fig in (self.fig_hold, self.fig_cost):
+                fig.layout.shapes[0].x0 = x
+                fig.layout.shapes[0].x1 = x
+            mh = self.fig_hold.data[self._n + 1]
+            mh.x = np.full(len(at_h), x)
+            mh.y = conv(at_h["hold_time_simulated"], "time", sys_)
+            mh.text = list(at_h["candidate"])
+            mc = self.fig_cost.data[self._n + 1]
+            mc.x = np.full(len(at_c), x)
+            mc.y = at_c["landed_cost"].to_numpy(float)
+            mc.text = list(at_c["candidate"])
+            self.fig_cost.layout.title.text = (
+                f"Landed cost per shipment — current {units.format_quantity(th, 'thickness', sys_)}")
+
+    def _draw_table(self) -> None:
+        sys_, cur, th = self.system, self.currency, self.thickness
+        opt, sw, curve = self.results.optimum, self.results.sweep, self.curve
+        cols = (("Build-up", None), ("Cheapest thickness that holds", "thickness"), ("Coolant there", "mass"),
+                ("Billable mass there", "mass"), ("Landed cost there", "currency"),
+                ("Landed cost at current thickness", "currency"), ("Holds at current thickness", "flag"),
+                ("Hold with chart coolant at current thickness", "time"))
+        head = "".join(header_cell(t, k, sys_, cur) for t, k in cols)
+        rows = []
+        for name in self.study.names:
+            o = opt.loc[name]
+            now = sw[(sw["candidate"] == name) & np.isclose(sw["thickness"], th)]
+            hold = curve[(curve["candidate"] == name) & np.isclose(curve["thickness"], th)]
+            holds_now = bool(now["meets_target"].iloc[0]) if len(now) else False
+            rows.append("<tr>" + cell(name, None, sys_) + cell(o["thickness"], "thickness", sys_)
+                        + cell(o["coolant_mass"], "mass", sys_) + cell(o["billable_mass"], "mass", sys_)
+                        + cell(o["landed_cost"], "currency", sys_)
+                        + cell(now["landed_cost"].iloc[0] if len(now) else np.nan, "currency", sys_)
+                        + flag_cell(holds_now)
+                        + cell(hold["hold_time_simulated"].iloc[0] if len(hold) else np.nan, "time", sys_)
+                        + "</tr>")
+        self.table.value = (f"<table><thead><tr>{head}</tr></thead><tbody>{''.join(rows)}</tbody></table>"
+                            '<div class="hw-hint">Costs are demo or user values, not quotes. '
+                            "n/a: no thickness of the sweep holds for the target.</div>")
+
+    # ------------------------------------------------------------ display
+    def resync(self) -> ShipperPanel:
+        """Push both charts' full current state to their widget models."""
+        sync_figure_state(self.fig_hold)
+        sync_figure_state(self.fig_cost)
+        return self
+
+    def _repr_mimebundle_(self, **kwargs):
+        self.resync()
+        return super()._repr_mimebundle_(**kwargs)
