@@ -13,8 +13,8 @@ and :class:`HousingPanel`, shown the same way.
 from workbench.widgets.app import DEMO_CANDIDATES, DEMO_TITLE, Workbench, demo_study
 from workbench.widgets.charts import sync_figure_state
 from workbench.widgets.housing_panel import HousingPanel
-from workbench.widgets.shipper_panel import ShipperPanel
 from workbench.widgets.runner import Cancelled, TaskRunner, fine_sweep
+from workbench.widgets.shipper_panel import ShipperPanel
 
 __all__ = [
     "Workbench",

@@ -177,10 +177,10 @@ class HousingPanel(widgets.VBox):
         self.notes.add_class("hw-housing-notes")
         line = dict(type="line", xref="x", yref="paper", x0=0, x1=0, y0=0, y1=1,
                     line=dict(color="#495057", width=1, dash="dot"))
-        legend = dict(font=dict(size=10), bgcolor="rgba(255,255,255,0.75)")
-        self.fig_eps = go.FigureWidget(layout=_base_layout("Mean surface temperature vs emissivity", 470, 360,
+        legend = dict(font=dict(size=10), orientation="h", yanchor="top", y=-0.2, x=0)
+        self.fig_eps = go.FigureWidget(layout=_base_layout("Mean surface temperature vs emissivity", 470, 540,
                                                            showlegend=True, legend=legend))
-        self.fig_pow = go.FigureWidget(layout=_base_layout("Hot-spot temperature vs power", 470, 360,
+        self.fig_pow = go.FigureWidget(layout=_base_layout("Hot-spot temperature vs power", 470, 540,
                                                            showlegend=True, legend=legend, shapes=[line]))
         self.fig_eps.add_class("hw-housing-chart-emissivity")
         self.fig_pow.add_class("hw-housing-chart-power")

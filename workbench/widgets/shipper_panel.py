@@ -287,13 +287,13 @@ class ShipperPanel(widgets.VBox):
                             "sizes the coolant for the target). A change of a field recomputes every design "
                             "(about a second); the slider only moves the markers.</div>")
         self.fig_hold = go.FigureWidget(layout=_base_layout(
-            "Hold time with a fixed coolant mass", 470, 340, showlegend=True,
-            legend=dict(font=dict(size=10), bgcolor="rgba(255,255,255,0.75)"),
+            "Hold time with a fixed coolant mass", 470, 470, showlegend=True,
+            legend=dict(font=dict(size=10), orientation="h", yanchor="top", y=-0.2, x=0),
             shapes=[dict(type="line", xref="x", yref="paper", x0=0, x1=0, y0=0, y1=1,
                          line=dict(color="#495057", width=1, dash="dot"))]))
         self.fig_cost = go.FigureWidget(layout=_base_layout(
-            "Landed cost per shipment (coolant sized for the target)", 470, 340, showlegend=True,
-            legend=dict(font=dict(size=10), bgcolor="rgba(255,255,255,0.75)"),
+            "Landed cost per shipment (coolant sized for the target)", 470, 470, showlegend=True,
+            legend=dict(font=dict(size=10), orientation="h", yanchor="top", y=-0.2, x=0),
             shapes=[dict(type="line", xref="x", yref="paper", x0=0, x1=0, y0=0, y1=1,
                          line=dict(color="#495057", width=1, dash="dot"))]))
         self.fig_hold.add_class("hw-shipper-chart-hold")
