@@ -5,6 +5,15 @@ see DEVELOPERS.md for the glossary of names and units.
 """
 
 from workbench._checks import ValidityWarning
+from workbench.air_layers import (
+    AirLayer,
+    air_layer_resistance,
+    air_layer_resistance_detailed,
+    convection_onset_width,
+    gap_equivalent_conductivity,
+    ventilation_class,
+)
+from workbench.air_properties import air_properties
 from workbench.conduction import (
     SolidLayer,
     WallSolution,
@@ -18,15 +27,6 @@ from workbench.conduction import (
     u_value,
     wall_temperatures,
 )
-from workbench.air_layers import (
-    AirLayer,
-    air_layer_resistance,
-    air_layer_resistance_detailed,
-    convection_onset_width,
-    gap_equivalent_conductivity,
-    ventilation_class,
-)
-from workbench.air_properties import air_properties
 from workbench.coolants import load_coolants
 from workbench.freight import billable_mass, landed_cost, outer_dimensions, round_up_mass
 from workbench.geometry import (
