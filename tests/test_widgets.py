@@ -388,6 +388,12 @@ def test_static_mode_shows_figure_documents_of_the_current_state():
     doc = outs[0].outputs[0]["data"]["application/vnd.plotly.v1+json"]
     assert doc["data"][-1]["x"][0] == pytest.approx(22.0)  # plain JSON lists
     assert "22 mm" in outs[3].outputs[0]["data"]["application/vnd.plotly.v1+json"]["layout"]["title"]["text"]
+    # a thickness move changes neither the required-thickness bars nor the trade-off chart:
+    # those Output widgets are not resent (the browser would redraw them for nothing)
+    before = [o.outputs for o in outs]
+    wb.s_thick.value = 30.0
+    assert outs[1].outputs is before[1] and outs[2].outputs is before[2]
+    assert outs[0].outputs is not before[0] and outs[3].outputs is not before[3]
     msg = wb.set_inputs(max_thickness="1 in")
     assert msg == {"max_thickness": ""}
     notes = outs[1].outputs[0]["data"]["application/vnd.plotly.v1+json"]["layout"]["annotations"]

@@ -641,8 +641,14 @@ class Workbench(widgets.VBox):
 
     def _show_static(self) -> None:
         """Static mode: show each chart as a plotly figure document in an Output widget."""
+        shown = getattr(self, "_static_shown", {})
         for chart, out in zip(self._charts(), self.charts.children, strict=True):
-            out.outputs = (static_figure_output(chart.fig),)
+            entry = static_figure_output(chart.fig)
+            # resend only the charts whose figure changed: the browser redraws each one it gets
+            if shown.get(id(out)) != entry["data"]:
+                out.outputs = (entry,)
+                shown[id(out)] = entry["data"]
+        self._static_shown = shown
 
     def _charts(self):
         return (self.flux_chart, self.req_chart, self.trade_chart, self.prof_chart)
