@@ -33,7 +33,8 @@ from workbench.widgets.charts import (
     compute_view,
     sync_figure_state,
 )
-from workbench.widgets.fields import LOG, UnitField, show_message
+from workbench.widgets.fields import UnitField, show_message
+from workbench.widgets.parts import guard, section
 from workbench.widgets.picker import CandidatePicker, short_label
 from workbench.widgets.runner import TaskRunner, fine_sweep
 from workbench.widgets.scenario_bar import ScenarioBar
@@ -95,10 +96,6 @@ def _plain(obj):
     if isinstance(obj, float) and not np.isfinite(obj):
         return None
     return obj
-
-
-def _section(text: str) -> widgets.HTML:
-    return widgets.HTML(f'<div class="hw-section">{html.escape(text)}</div>')
 
 
 class Workbench(widgets.VBox):
@@ -234,11 +231,11 @@ class Workbench(widgets.VBox):
         self.sweep_result.add_class("hw-sweep-result")
 
         left = widgets.VBox([
-            _section("Candidates"), self.picker.box,
-            _section("Conditions"), self.f_inside.box, self.f_outside.box, self.f_area.box, self.budget_kind,
+            section("Candidates"), self.picker.box,
+            section("Conditions"), self.f_inside.box, self.f_outside.box, self.f_area.box, self.budget_kind,
             self.f_budget.box, self.f_max.box,
-            _section("Sweep"), self.s_thick, self.s_dt, self.slider_hint,
-            _section("View"), self.highlight, self.crit_x, self.crit_y, self.crit_c,
+            section("Sweep"), self.s_thick, self.s_dt, self.slider_hint,
+            section("View"), self.highlight, self.crit_x, self.crit_y, self.crit_c,
         ], layout=w(width="350px", min_width="350px", margin="0 12px 0 0"))
         left.add_class("hw-panel")
         shown = [c.fig for c in self._charts()]
@@ -259,11 +256,11 @@ class Workbench(widgets.VBox):
             self.cautions,
             self.status,
             widgets.HBox([left, right], layout=w(flex_flow="row wrap", align_items="flex-start")),
-            _section("Results at the design point (each candidate at its required thickness)"),
+            section("Results at the design point (each candidate at its required thickness)"),
             self.table.box,
-            _section("Scenario file (inputs, candidates and the chosen one, for the meeting to re-run)"),
+            section("Scenario file (inputs, candidates and the chosen one, for the meeting to re-run)"),
             self.scenario_bar.box,
-            _section("Long computations"),
+            section("Long computations"),
             widgets.HBox([self.sweep_button, self.runner.box]),
             self.sweep_result,
         ]
@@ -280,14 +277,7 @@ class Workbench(widgets.VBox):
     # ------------------------------------------------------------- plumbing
     def _guard(self, fn, *args):
         """Run an event handler; show any problem in the status line, never raise."""
-        try:
-            return fn(*args)
-        except ValueError as exc:
-            show_message(self.status, str(exc))
-        except Exception as exc:
-            LOG.exception("workbench event failed")
-            show_message(self.status, f"Something went wrong ({type(exc).__name__}: {exc}); the last good result is shown.")
-        return None
+        return guard(self.status, fn, *args)
 
     def _slider(self, fn, change):
         if self._silent:

@@ -26,7 +26,7 @@ from workbench.studies.housing import HOUSING_CAUTIONS, Component, HousingStudy
 from workbench.widgets import style
 from workbench.widgets.charts import _affine, _base_layout, sync_figure_state
 from workbench.widgets.fields import UnitField, show_message
-from workbench.widgets.shipper_panel import (
+from workbench.widgets.parts import (
     cautions_html,
     cell,
     conv,
@@ -34,6 +34,7 @@ from workbench.widgets.shipper_panel import (
     guard,
     header_cell,
     header_html,
+    panel_children,
     section,
 )
 
@@ -201,18 +202,12 @@ class HousingPanel(widgets.VBox):
         self.table = widgets.HTML("")
         self.table.add_class("hw-table")
         self.table.add_class("hw-housing-table")
-        left = widgets.VBox([section("Conditions"), self.f_power.box, self.f_ambient.box, self.f_contact.box,
-                             section("Power"), self.slider, hint, self.notes],
-                            layout=w(width="350px", min_width="350px", margin="0 12px 0 0"))
-        left.add_class("hw-panel")
-        left.add_class("hw-housing-inputs")
-        charts = widgets.HBox([self.fig_eps, self.fig_pow], layout=w(flex_flow="row wrap"))
-        self._children = [
-            widgets.HBox([self.header, self.system_toggle], layout=w(align_items="center")),
-            self.cautions, self.status,
-            widgets.HBox([left, charts], layout=w(flex_flow="row wrap", align_items="flex-start")),
-            section("Results per candidate (pass/fail against the touch and inside-air limits)"), self.table,
-        ]
+        self._children = panel_children(
+            self.header, self.system_toggle, self.cautions, self.status,
+            [section("Conditions"), self.f_power.box, self.f_ambient.box, self.f_contact.box,
+             section("Power"), self.slider, hint, self.notes],
+            "hw-housing-inputs", [self.fig_eps, self.fig_pow],
+            "Results per candidate (pass/fail against the touch and inside-air limits)", self.table)
         self.system_toggle.observe(self._toggled, "value")
         self.slider.observe(self._slid, "value")
 

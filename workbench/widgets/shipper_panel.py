@@ -26,12 +26,22 @@ import plotly.graph_objects as go
 from workbench import units
 from workbench.studies.shipper import ShipperStudy
 from workbench.widgets import style
-from workbench.widgets.charts import _affine, _base_layout, _num, sync_figure_state
+from workbench.widgets.charts import _base_layout, sync_figure_state
 from workbench.widgets.fields import LOG, UnitField, show_message
+from workbench.widgets.parts import (
+    cautions_html,
+    cell,
+    conv,
+    flag_cell,
+    guard,
+    header_cell,
+    header_html,
+    panel_children,
+    section,
+)
 
 __all__ = ["ShipperPanel", "demo_shipper_study", "SHIPPER_PANEL_CAUTIONS", "CostField"]
 
-DEMO_BADGE = "DEMO — invented numbers"
 SHIPPER_DEMO_TITLE = "Demo (invented): 2–8 °C laboratory kit on a two-day summer route"
 
 #: Always shown above the charts (our wording); the study's own cautions follow it.
@@ -74,70 +84,6 @@ def demo_shipper_study() -> ShipperStudy:
         t_ambient=profile, duration=48 * 3600.0, thicknesses=np.round(np.arange(0.01, 0.1001, 0.005), 4),
         safety_factor=1.2, divisor=0.005, mass_increment=0.5, rate_per_kg=1.50, fixed_fee=5.0,
     )
-
-
-# ---------------------------------------------------------------- shared bits
-def section(text: str) -> widgets.HTML:
-    return widgets.HTML(f'<div class="hw-section">{html.escape(text)}</div>')
-
-
-def header_html(title: str, demo: bool, subtitle: str) -> str:
-    badge = f'<span class="hw-badge">{DEMO_BADGE}</span>' if demo else ""
-    return (f'{style.CSS}<div class="hw-title">{html.escape(title)}{badge}</div>'
-            f'<div class="hw-subtitle">{html.escape(subtitle)}</div>')
-
-
-def cautions_html(fixed, extra=()) -> str:
-    items = list(dict.fromkeys([*fixed, *extra]))
-    body = "".join(f"<li>{html.escape(str(c))}</li>" for c in items)
-    return f'<div class="hw-cautions"><b>Cautions:</b><ul style="margin:2px 0 2px 18px;padding:0">{body}</ul></div>'
-
-
-def conv(values, kind: str, system: str) -> np.ndarray:
-    """SI → display unit of ``system`` (affine, vectorised)."""
-    a, b = _affine(kind, system)
-    return np.asarray(values, float) * a + b
-
-
-def cell(value, kind: str | None, system: str, currency: str | None = None) -> str:
-    """One table cell: 3 significant figures in the display unit (temperatures with 1 decimal)."""
-    if kind is None:
-        return f'<td class="hw-l">{html.escape(str(value))}</td>'
-    try:
-        v = float(value)
-    except (TypeError, ValueError):
-        return "<td>n/a</td>"
-    if not np.isfinite(v):
-        return "<td>n/a</td>"
-    if kind == "currency":
-        return f"<td>{_num(v)}</td>"
-    x = float(conv(v, kind, system))
-    return f"<td>{f'{x:.1f}' if kind == 'temperature' else _num(x)}</td>"
-
-
-def header_cell(title: str, kind: str | None, system: str, currency: str | None = None) -> str:
-    if kind is None:
-        return f'<th class="hw-l">{html.escape(title)}</th>'
-    if kind == "flag":
-        return f"<th>{html.escape(title)}</th>"
-    unit = (currency or "¤") if kind == "currency" else units.display_unit(kind, system, currency)
-    return f"<th>{html.escape(title)} [{html.escape(unit or '–')}]</th>"
-
-
-def flag_cell(ok: bool, yes: str = "✓ yes", no: str = "✗ no") -> str:
-    return f"<td>{yes}</td>" if ok else f'<td class="hw-bad">{no}</td>'
-
-
-def guard(status: widgets.HTML, fn, *args):
-    """Run an event handler; show any problem in ``status``, never raise into the notebook."""
-    try:
-        return fn(*args)
-    except ValueError as exc:
-        show_message(status, str(exc))
-    except Exception as exc:
-        LOG.exception("panel event failed")
-        show_message(status, f"Something went wrong ({type(exc).__name__}: {exc}); the last good result is shown.")
-    return None
 
 
 class CostField(UnitField):
@@ -317,18 +263,11 @@ class ShipperPanel(widgets.VBox):
         self.table = widgets.HTML("")
         self.table.add_class("hw-table")
         self.table.add_class("hw-shipper-table")
-        left = widgets.VBox([section("Conditions"), self.f_duration.box, self.f_ambient.box, self.f_coolant.box,
-                             self.f_rate.box, section("Insulation thickness"), self.slider, hint],
-                            layout=w(width="350px", min_width="350px", margin="0 12px 0 0"))
-        left.add_class("hw-panel")
-        left.add_class("hw-shipper-inputs")
-        charts = widgets.HBox([self.fig_hold, self.fig_cost], layout=w(flex_flow="row wrap"))
-        self._children = [
-            widgets.HBox([self.header, self.system_toggle], layout=w(align_items="center")),
-            self.cautions, self.status,
-            widgets.HBox([left, charts], layout=w(flex_flow="row wrap", align_items="flex-start")),
-            section("Results per build-up"), self.table,
-        ]
+        self._children = panel_children(
+            self.header, self.system_toggle, self.cautions, self.status,
+            [section("Conditions"), self.f_duration.box, self.f_ambient.box, self.f_coolant.box,
+             self.f_rate.box, section("Insulation thickness"), self.slider, hint],
+            "hw-shipper-inputs", [self.fig_hold, self.fig_cost], "Results per build-up", self.table)
         self.system_toggle.observe(self._toggled, "value")
         self.slider.observe(self._slid, "value")
 
