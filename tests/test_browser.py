@@ -294,6 +294,8 @@ def test_voila_app_view(browser, tmp_path, timings):
         try:
             page.goto(f"{base}/", timeout=180_000)
             _wait_rendered(page)
+            # the charts update in place through plotly's change messages, as in JupyterLab
+            assert page.locator(".hw-workbench.hw-redraw-messages").count() == 1
             _exercise(page, "voila", timings)
         finally:
             page.close()

@@ -108,6 +108,37 @@ def test_shipper_target_and_rate_recompute_costs(ship, ship_study):
     assert_allclose(np.asarray(ship.fig_cost.data[1].y, float), g["landed_cost"].to_numpy(float), rtol=1e-9)
 
 
+def test_shipper_recompute_runs_as_a_task_and_cancel_keeps_the_last_result(ship_study):
+    panel = ShipperPanel(ship_study, coolant_mass=3.0)  # background=True, as in a notebook
+    hold_before = _hold_y(panel, ship_study.names[0]).copy()
+    panel.f_duration.text.value = "400 h"  # a long run: twice 400 h for the hold chart
+    assert panel.f_duration.error == ""
+    assert panel.runner.busy or panel.runner.state != "idle"
+    panel.runner.cancel_button.click()
+    assert panel.wait(120)
+    if panel.runner.state == "cancelled":  # the normal case: Cancel lands within the run
+        assert "Cancelled" in panel.runner.status.value and "Not applied: target hold time 400 h" in \
+            panel.runner.status.value
+        assert panel.study.duration == ship_study.duration  # charts and table keep the last result
+        assert_allclose(_hold_y(panel, ship_study.names[0]), hold_before)
+        assert panel.f_duration.text.value == "48 h"  # the field shows the charts' input again
+    # the next input starts from the last completed inputs and finishes with a full bar
+    assert panel.set_inputs(duration="36 h") == {"duration": ""}
+    assert panel.runner.state == "done" and panel.runner.bar.value == 1.0
+    assert panel.study.duration == pytest.approx(36 * constants.hour)
+    ref = dataclasses.replace(ship_study, duration=36 * constants.hour).hold_curve(3.0)
+    g = ref[ref["candidate"] == ship_study.names[0]]
+    assert_allclose(_hold_y(panel, ship_study.names[0]), g["hold_time_simulated"].to_numpy(float) / 3600, rtol=1e-9)
+    # a second input typed while the first still runs supersedes it and keeps both changes
+    panel.f_rate.text.value = "2 EUR/kg"
+    panel.f_duration.text.value = "40 h"
+    assert panel.wait(120) and panel.runner.state == "done"
+    assert panel.study.duration == pytest.approx(40 * constants.hour) and panel.study.rate_per_kg == pytest.approx(2.0)
+    ref = dataclasses.replace(ship_study, duration=40 * constants.hour).hold_curve(3.0)
+    g = ref[ref["candidate"] == ship_study.names[0]]
+    assert_allclose(_hold_y(panel, ship_study.names[0]), g["hold_time_simulated"].to_numpy(float) / 3600, rtol=1e-9)
+
+
 def test_shipper_ambient_in_fahrenheit_shifts_profile(ship, ship_study):
     assert ship.set_inputs(ambient="95 °F") == {"ambient": ""}
     times, temps = ship_study.t_ambient

@@ -18,6 +18,7 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
+from workbench._checks import Cancelled
 from workbench.geometry import box_conductance
 from workbench.transient import (
     PAYLOAD_RANGES,
@@ -122,6 +123,19 @@ def test_simulation_matches_closed_form():
     sim = _sim()
     assert sim.time_coolant_spent == pytest.approx(2.0 * L_ICE / 15.0, rel=1e-3)
     assert sim.reason == "coolant spent"
+
+
+def test_progress_and_cancel_leave_the_result_unchanged():
+    # the hooks only observe: same hold as without them (closed form t = m L / (UA ΔT) as above)
+    seen = []
+    sim = _sim(progress=seen.append, cancel=lambda: False)
+    assert sim.time_coolant_spent == pytest.approx(2.0 * L_ICE / 15.0, rel=1e-3)
+    assert sim.time_coolant_spent == _sim().time_coolant_spent
+    assert seen == sorted(seen) and seen[-1] == 1.0 and 40 <= len(seen) <= 60
+    calls = []
+    with pytest.raises(Cancelled, match="cancelled at"):
+        _sim(cancel=lambda: calls.append(1) or len(calls) >= 3)
+    assert len(calls) == 3
 
 
 def test_simulation_step_profile_by_hand():

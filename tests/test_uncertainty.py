@@ -169,6 +169,7 @@ def test_progress_cancel_and_reproducibility():
     np.testing.assert_array_equal(full1.p50, full2.p50)
     none = monte_carlo(flux_model, NOMINAL, {}, n_samples=10, cancel=lambda: True)
     assert none.n_samples == 0 and np.isnan(none.p50).all()
+    assert none.p50.shape == (3, 2) and none.prob_best.shape == (3, 2)  # one column per criterion
 
 
 def test_bad_inputs():

@@ -377,7 +377,7 @@ def test_workbench_fine_sweep_button(wb):
 
 
 def test_static_mode_shows_figure_documents_of_the_current_state():
-    # the mode used inside Voila, where FigureWidget views do not apply change messages
+    # the fallback for front ends without plotly's widget code
     wb = Workbench(redraw="static")
     assert "hw-redraw-static" in wb._dom_classes
     outs = wb.charts.children
@@ -471,3 +471,43 @@ def test_last_used_scenario_survives_a_new_workbench(tmp_path, monkeypatch):
     fresh.scenario_bar.recover()
     assert fresh.study.max_thickness == pytest.approx(0.085)
     assert "Reopened" in fresh.scenario_bar.message.value
+
+
+def test_rank_stability_button_tabulates_the_studys_monte_carlo(wb):
+    wb.start_rank_stability(background=False, n_samples=4000)
+    assert wb.runner.state == "done", wb.runner.error
+    frame = wb.study.uncertainty(n_samples=4000)  # same seed: the numbers shown are the study's
+    html_ = wb.mc_result.value
+    assert "4,000 samples" in html_ and html_.count("<tr>") == len(wb.study.candidates) + 1
+    p90_mm = frame["total_thickness_p90"].to_numpy() * 1000
+    shown = [f"{v:.3g}" for v in p90_mm]
+    assert all(f"<td>{s}</td>" in html_ for s in shown)
+
+
+def test_rank_stability_cancel_before_the_first_chunk(wb):
+    # Cancel pressed before any sample is drawn (a loaded machine): a clean "cancelled", no table
+    snapshot = wb.study
+    frame = snapshot.uncertainty(n_samples=1000, cancel=lambda: True)
+    assert frame.attrs["cancelled"] and frame.attrs["n_samples"] == 0
+    assert frame["total_thickness_p50"].isna().all()
+
+
+def test_rank_stability_cancel_shows_no_partial_estimate(wb):
+    wb.start_rank_stability(background=True, n_samples=500_000)  # about 2 s of work
+    wb.runner.cancel_button.click()
+    assert wb.runner.wait(60)
+    assert wb.runner.state == "cancelled" and "stopped after" in wb.runner.status.value
+    assert wb.mc_result.value == ""
+
+
+def test_buildup_search_button_lists_build_ups_that_meet_the_budget(wb):
+    wb.start_buildup_search(background=False)
+    assert wb.runner.state == "done", wb.runner.error
+    frame = wb.study.buildup_search()
+    n_ok = int(frame["meets_budget"].sum())
+    text = wb.stack_result.value
+    assert f"{len(frame)} non-dominated build-ups" in text and f"{n_ok} of them meet the heat budget" in text
+    assert text.count("<tr>") == 1 + min(8, n_ok if n_ok else len(frame))
+    wb.system_toggle.value = "US"
+    wb.start_buildup_search(background=False)
+    assert "[in]" in wb.stack_result.value and "/ft²]" in wb.stack_result.value

@@ -10,6 +10,7 @@ from __future__ import annotations
 import numpy as np
 
 __all__ = [
+    "Cancelled",
     "ValidityWarning",
     "as_array",
     "finite",
@@ -20,6 +21,10 @@ __all__ = [
     "broadcast_shape",
     "scalar_or_array",
 ]
+
+
+class Cancelled(Exception):
+    """A long computation stopped because its ``cancel()`` check returned True."""
 
 
 class ValidityWarning(UserWarning):

@@ -23,12 +23,12 @@ material, pruning the partial stacks to their Pareto front at every step.
 
 from __future__ import annotations
 
-from collections.abc import Sequence
+from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 
 import numpy as np
 
-from workbench._checks import finite, nonnegative, positive
+from workbench._checks import Cancelled, finite, nonnegative, positive
 from workbench.ranking import pareto_front
 
 __all__ = [
@@ -276,6 +276,8 @@ def _search(
     prune_cols: Sequence[int],
     budget: float | None,
     allow_repeat: bool,
+    progress: Callable[[float], None] | None = None,
+    cancel: Callable[[], bool] | None = None,
 ):
     """Exact front of partial stacks, material by material.
 
@@ -295,6 +297,10 @@ def _search(
     pend_c: list[np.ndarray] = []
     pending = 0
     for j in range(o.n_materials):
+        if cancel is not None and cancel():
+            raise Cancelled(f"stack search cancelled after {j} of {o.n_materials} materials")
+        if progress is not None and j:
+            progress(j / o.n_materials)
         oi = np.arange(starts[j], starts[j + 1])
         if oi.shape[0] == 0:
             continue
@@ -371,6 +377,8 @@ def stack_front(
     objectives: Sequence[str] = ("resistance", "mass_per_area", "cost_per_area"),
     max_total_thickness: float | None = None,
     allow_repeat: bool = False,
+    progress: Callable[[float], None] | None = None,
+    cancel: Callable[[], bool] | None = None,
 ) -> StackSet:
     """Exact Pareto front of the stacks of 1 to ``max_layers`` layers.
 
@@ -396,6 +404,11 @@ def stack_front(
         Budget for the total thickness [m].
     allow_repeat : bool
         Allow a material in more than one layer.
+    progress : callable, optional
+        Called with the fraction of materials processed (0..1].
+    cancel : callable, optional
+        Checked before each material; when it returns True the search raises
+        :class:`workbench._checks.Cancelled` (a partial front is not exact).
 
     Returns
     -------
@@ -442,11 +455,13 @@ def stack_front(
     if max_total_thickness is not None:
         budget = float(positive("max_total_thickness", max_total_thickness, "m"))
     prune = sorted(set(cols) | ({3} if budget is not None else set()))
-    vals, comp = _search(o, max_layers, prune, budget, allow_repeat)
+    vals, comp = _search(o, max_layers, prune, budget, allow_repeat, progress, cancel)
     s = _to_stackset(o, vals, comp, max_layers)
     s = s.subset(pareto_front(s.objectives(names)))
     if allow_repeat:
         s = _dedupe_repeats(s)
+    if progress is not None:
+        progress(1.0)
     return s
 
 

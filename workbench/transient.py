@@ -39,6 +39,7 @@ from types import MappingProxyType
 import numpy as np
 
 from workbench._checks import (
+    Cancelled,
     broadcast,
     finite,
     in_range,
@@ -441,6 +442,8 @@ def simulate_hold(
     t_payload_min: ArrayLike | None = None,
     t_payload_max: ArrayLike | None = None,
     record_every: int = 1,
+    progress: Callable[[float], None] | None = None,
+    cancel: Callable[[], bool] | None = None,
 ) -> HoldSimulation:
     """Time-stepped hold of many shipper variants at once (two-node energy balance).
 
@@ -484,6 +487,12 @@ def simulate_hold(
         for no limit on that side. [K]
     record_every : int
         Store every n-th step (events are found on every step).
+    progress : callable, optional
+        Called with the fraction of the duration simulated (0..1], about every
+        2 % of the steps.
+    cancel : callable, optional
+        Checked as often; when it returns True the run raises
+        :class:`workbench._checks.Cancelled`.
 
     Returns
     -------
@@ -623,7 +632,13 @@ def simulate_hold(
     rec_pos = 1
     ua_w_c = phi * ua
     ua_w_p = (1.0 - phi) * ua
+    every = max(1, n_steps // 50)
     for k in range(n_steps):
+        if k % every == 0 and k:
+            if cancel is not None and cancel():
+                raise Cancelled(f"hold-time run cancelled at {edges[k] / 3600:.1f} h of {dur / 3600:.1f} h")
+            if progress is not None:
+                progress(k / n_steps)
         step = edges[k + 1] - edges[k]
         ta = ta_steps[k]
         latent = (h >= 0) & (h <= lat)
@@ -715,6 +730,8 @@ def simulate_hold(
     def shp(x):
         return x.reshape(shape + x.shape[1:])
 
+    if progress is not None:
+        progress(1.0)
     return HoldSimulation(
         times=edges[rec_idx],
         ambient=np.concatenate([[temps_p[0]], ta_steps])[rec_idx],

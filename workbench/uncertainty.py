@@ -289,8 +289,9 @@ def monte_carlo(
         if progress is not None:
             progress(done / n_samples)
 
-    if done == 0:
-        nan = np.full((n_cand, 1), np.nan)
+    if done == 0:  # cancelled before the first chunk: one nominal call gives the criteria count
+        y = np.asarray(model({k: np.broadcast_to(nom[k], (1, n_cand)) for k in names}), dtype=float)
+        nan = np.full((n_cand, y.shape[2] if y.ndim == 3 else 1), np.nan)
         return MonteCarloResult(0, True, nan, nan, nan, nan, nan, None, None)
     ys = stored[:done]
     p10, p50, p90 = np.percentile(ys, [10, 50, 90], axis=0)

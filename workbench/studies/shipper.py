@@ -412,8 +412,13 @@ class ShipperStudy:
         return mass, self._box(lay, mass)
 
     # -- the sweep ------------------------------------------------------------
-    def sweep(self) -> pd.DataFrame:
+    def sweep(self, progress=None, cancel=None) -> pd.DataFrame:
         """Every candidate × thickness: coolant, box, masses, costs and simulated hold.
+
+        ``progress(fraction)`` and ``cancel()`` (optional) are passed to the
+        time-stepped simulation (:func:`workbench.transient.simulate_hold`),
+        which takes most of the time; a True ``cancel()`` raises
+        :class:`workbench._checks.Cancelled`.
 
         Returns
         -------
@@ -490,7 +495,10 @@ class ShipperStudy:
             designs.append((box["conductance"], mass))
         frame = pd.concat(frames, ignore_index=True)
         sim = self.simulate(
-            np.concatenate([d[0] for d in designs]), np.concatenate([d[1] for d in designs])
+            np.concatenate([d[0] for d in designs]),
+            np.concatenate([d[1] for d in designs]),
+            progress=progress,
+            cancel=cancel,
         )
         frame["hold_time_simulated"] = sim.hold_time
         frame["time_coolant_spent"] = sim.time_coolant_spent
@@ -510,7 +518,7 @@ class ShipperStudy:
         return frame
 
     def simulate(
-        self, conductance, coolant_mass, duration: float | None = None
+        self, conductance, coolant_mass, duration: float | None = None, progress=None, cancel=None
     ) -> transient.HoldSimulation:
         """Time-stepped check of designs (arrays of conductance [W/K] and coolant mass [kg])."""
         row = self.coolant_row
@@ -532,13 +540,16 @@ class ShipperStudy:
             t_payload_min=self.t_payload_min,
             t_payload_max=self.t_payload_max,
             record_every=max(1, int(round(1800.0 / self.time_step))),
+            progress=progress,
+            cancel=cancel,
         )
 
-    def hold_curve(self, coolant_mass: float) -> pd.DataFrame:
+    def hold_curve(self, coolant_mass: float, progress=None, cancel=None) -> pd.DataFrame:
         """Hold time against thickness for each candidate with a fixed coolant mass.
 
         Returns closed-form and simulated hold times [s] (the simulation runs
         for twice the target duration, so longer holds show up to that).
+        ``progress``/``cancel`` as in :meth:`sweep`.
         """
         mass = float(positive("coolant_mass", coolant_mass, "kg"))
         row = self.coolant_row
@@ -566,7 +577,13 @@ class ShipperStudy:
                 )
             )
         frame = pd.concat(frames, ignore_index=True)
-        sim = self.simulate(frame["conductance"].to_numpy(), mass, duration=2 * self.duration)
+        sim = self.simulate(
+            frame["conductance"].to_numpy(),
+            mass,
+            duration=2 * self.duration,
+            progress=progress,
+            cancel=cancel,
+        )
         frame["hold_time_simulated"] = sim.hold_time
         frame["end_reason"] = sim.reason
         frame.attrs["units"] = {
@@ -657,9 +674,9 @@ class ShipperStudy:
         out.append("Material, coolant and freight costs are demo or user values, not quotes.")
         return tuple(dict.fromkeys(out))
 
-    def results(self) -> ShipperResults:
-        """Sweep, optimum per candidate and cautions."""
-        sweep = self.sweep()
+    def results(self, progress=None, cancel=None) -> ShipperResults:
+        """Sweep, optimum per candidate and cautions (``progress``/``cancel`` as in :meth:`sweep`)."""
+        sweep = self.sweep(progress=progress, cancel=cancel)
         rows = []
         for name in self.names:
             s = sweep[(sweep["candidate"] == name) & sweep["meets_target"]]

@@ -18,7 +18,7 @@ from dataclasses import dataclass, field
 import numpy as np
 import pandas as pd
 
-from workbench import conduction, ranking, uncertainty
+from workbench import conduction, ranking, stacks, uncertainty
 from workbench._checks import ValidityWarning, finite, nonnegative, positive
 
 __all__ = ["Layer", "Candidate", "HeatBudget", "WallStudy", "WALL_ASSUMPTIONS", "WALL_CRITERIA"]
@@ -683,6 +683,102 @@ class WallStudy:
         frame.attrs.update(n_samples=mc.n_samples, seed=seed, cancelled=mc.cancelled,
                            distribution="normal, sigma = table half-range / sqrt(3), truncated at 0")
         return frame
+
+    def buildup_search(self, thickness_options=None, max_layers: int = 3, progress=None,
+                       cancel=None) -> pd.DataFrame:
+        """Non-dominated build-ups of 1 to ``max_layers`` of the candidates' sized materials.
+
+        Every stack of different materials (each layer one of the thickness
+        options, total within ``max_thickness``) is scored on its thermal
+        resistance (more is better), mass and cost per area; the exact Pareto
+        front of those stacks is returned (:func:`workbench.stacks.stack_front`;
+        cost drops out when a material has no price). Each layer uses its table
+        conductivity at the table's stated temperature (no k(T) here; the layer
+        order does not change the criteria, so it is chosen afterwards).
+
+        Parameters
+        ----------
+        thickness_options : array_like, optional
+            Layer thicknesses to combine [m]; default 5 mm steps up to the
+            maximum thickness (or up to 100 mm without one).
+        max_layers : int
+            1 to 3.
+        progress, cancel : callable, optional
+            Passed to :func:`~workbench.stacks.stack_front` (fraction done;
+            a True ``cancel()`` raises :class:`workbench._checks.Cancelled`).
+
+        Returns
+        -------
+        DataFrame
+            One row per non-dominated build-up: its layers as text, material
+            ids and layer thicknesses [m] as tuples, number of layers, total thickness [m], resistance of the layers [m²·K/W],
+            U-value with this study's surface resistances [W/(m²·K)], heat flux
+            at the design ΔT [W/m²], mass and cost per area, and whether it meets
+            the heat budget; sorted so that build-ups meeting the budget come
+            first, cheapest (or lightest) first. ``attrs``: ``units``,
+            ``n_stacks`` (stacks scored, before the thickness limit),
+            ``objectives``.
+
+        Notes
+        -----
+        :math:`R = \\sum_i L_i/k_i`, :math:`U = 1/(R_{si} + R + R_{se})`,
+        :math:`q = U\\,|\\Delta T|` (Fourier's law, layers in series).
+
+        References
+        ----------
+        ``incropera7``: 7th ed., §3.1 (resistances in series);
+        ``iso6946-2017``: clause 6.7.1 (total thermal resistance, U-value).
+        """
+        ids = list(dict.fromkeys(c.sized_material for c in self.candidates))
+        m = self.materials.loc[ids]
+        k = m["conductivity"].to_numpy(float)
+        rho = m["density"].to_numpy(float)
+        cv = m["cost_per_volume"].to_numpy(float) if "cost_per_volume" in m else np.full(len(ids), np.nan)
+        priced = bool(np.all(np.isfinite(cv)))
+        top = self.max_thickness if self.max_thickness is not None else 0.1
+        if thickness_options is None:
+            opts = np.arange(1, int(np.floor(top / 0.005 + 1e-9)) + 1) * 0.005
+            opts = opts if opts.size else np.array([top])
+        else:
+            opts = positive("thickness_options", np.atleast_1d(np.asarray(thickness_options, float)), "m")
+        if max_layers not in (1, 2, 3):
+            raise ValueError(f"max_layers: must be 1, 2 or 3, got {max_layers}")
+        objectives = ("resistance", "mass_per_area", "cost_per_area") if priced else ("resistance", "mass_per_area")
+        front = stacks.stack_front(k, rho, np.where(np.isfinite(cv), cv, 0.0), opts, max_layers=max_layers,
+                                   objectives=objectives, max_total_thickness=self.max_thickness,
+                                   progress=progress, cancel=cancel)
+        names = m["name"].to_numpy(str) if "name" in m else np.array(ids)
+        lt = front.layer_thickness
+        text = [" + ".join(f"{names[j]} {lt[r, c] * 1000:.0f} mm" for c, j in enumerate(front.material[r]) if j >= 0)
+                for r in range(len(front))]
+        u = front.u_value(self.r_si, self.r_se)
+        q = u * abs(self.delta_t)
+        q_max = None if self.budget is None else float(self.max_flux())
+        frame = pd.DataFrame({
+            "build_up": text,
+            "materials": [tuple(ids[j] for j in row if j >= 0) for row in front.material],
+            "layer_thickness": [tuple(float(t) for t, j in zip(lt[r], front.material[r], strict=True) if j >= 0)
+                                for r in range(len(front))],
+            "layers": front.n_layers,
+            "total_thickness": front.thickness,
+            "resistance": front.resistance,
+            "u_value": u,
+            "heat_flux": q,
+            "mass_per_area": front.mass_per_area,
+            "cost_per_area": front.cost_per_area if priced else np.nan,
+            "meets_budget": True if q_max is None else q <= q_max * (1 + 1e-9),
+        })
+        order = ["meets_budget", "cost_per_area" if priced else "mass_per_area", "mass_per_area"]
+        frame = frame.sort_values(order, ascending=[False, True, True], kind="stable").reset_index(drop=True)
+        n = len(ids)
+        n_stacks = sum(int(np.prod([n - i for i in range(j)]) / np.prod(range(1, j + 1))) * opts.size ** j
+                       for j in range(1, max_layers + 1))
+        frame.attrs["units"] = {"total_thickness": "m", "resistance": "m²·K/W", "u_value": "W/(m²·K)",
+                                "heat_flux": "W/m²", "mass_per_area": "kg/m²",
+                                "cost_per_area": f"{_currency(self.materials)}/m²"}
+        frame.attrs.update(n_stacks=n_stacks, objectives=objectives)
+        return frame
+
 
 def _cost_per_volume(row) -> float:
     """Cost per m³ of a material row [currency/m³] (NaN where no cost is known)."""

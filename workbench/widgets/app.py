@@ -12,7 +12,6 @@ import base64
 import dataclasses
 import html
 import json
-import os
 import time
 
 import ipywidgets as widgets
@@ -20,6 +19,7 @@ import numpy as np
 import pandas as pd
 
 from workbench import units
+from workbench._checks import Cancelled
 from workbench.materials import MaterialsFileError, load_conductivity_curves, load_materials
 from workbench.studies.wall import HeatBudget, WallStudy
 from workbench.widgets import style
@@ -34,7 +34,7 @@ from workbench.widgets.charts import (
     sync_figure_state,
 )
 from workbench.widgets.fields import UnitField, show_message
-from workbench.widgets.parts import guard, section
+from workbench.widgets.parts import cell, guard, header_cell, section
 from workbench.widgets.picker import CandidatePicker, short_label
 from workbench.widgets.runner import TaskRunner, fine_sweep
 from workbench.widgets.scenario_bar import ScenarioBar
@@ -114,9 +114,10 @@ class Workbench(widgets.VBox):
         Show the "DEMO — invented numbers" badge; default: when no study is given.
     redraw : {"auto", "messages", "static"}
         How chart changes reach the browser: plotly's change messages to the
-        FigureWidgets (notebook front ends), or static figure documents replaced
-        after each update (needed under Voila); "auto" chooses by the kernel's
-        environment.
+        FigureWidgets ("messages"; "auto" means this, in JupyterLab and Voila
+        alike), or a static figure document per chart replaced after each
+        update ("static": a fallback for front ends without plotly's widget
+        code; each update redraws the whole chart).
 
     Notes
     -----
@@ -131,11 +132,11 @@ class Workbench(widgets.VBox):
         units.check_system(system)
         if redraw not in ("auto", "messages", "static"):
             raise ValueError(f"redraw: unknown {redraw!r}; valid: ['auto', 'messages', 'static']")
-        # Under Voila (0.5.13 with plotly 7.1 / anywidget 0.11 here) FigureWidget views
-        # do not apply plotly's change messages. "static" shows each chart as a plotly
-        # figure document in an Output widget, replaced after every update (the
-        # FigureWidgets stay the model); "auto" picks it inside a Voila kernel.
-        self.redraw = ("static" if os.environ.get("VOILA_KERNEL_ID") else "messages") if redraw == "auto" else redraw
+        # "static" shows each chart as a plotly figure document in an Output widget,
+        # replaced after every update (the FigureWidgets stay the model). The browser
+        # tests show the change messages applied in place under Voila 0.5 as in
+        # JupyterLab, so "auto" means "messages" everywhere.
+        self.redraw = "messages" if redraw == "auto" else redraw
         demo = study is None if demo is None else bool(demo)
         self.study = demo_study() if study is None else study
         self.system = system
@@ -222,13 +223,26 @@ class Workbench(widgets.VBox):
         self.trade_chart.fig.data[1].on_click(self._clicked_point)
 
         self.table = ResultsTable()
-        self.runner = TaskRunner("Fine sweep")
+        self.runner = TaskRunner("Progress")
         self.sweep_button = widgets.Button(description="Fine sweep of ΔT", icon="play",
                                            tooltip="Flux of every candidate over 400 ΔT × 400 thicknesses, in chunks",
-                                           layout=w(width="160px"))
+                                           layout=w(width="170px"))
         self.sweep_button.add_class("hw-fine-sweep")
+        self.mc_button = widgets.Button(description="Rank stability", icon="random",
+                                        tooltip="Monte Carlo over the conductivity tolerances: 20,000 samples",
+                                        layout=w(width="170px"))
+        self.mc_button.add_class("hw-rank-stability")
+        self.stack_button = widgets.Button(description="Build-up search", icon="search",
+                                           tooltip="Every stack of up to 3 of the candidate materials, 5 mm steps, "
+                                                   "within the max thickness",
+                                           layout=w(width="170px"))
+        self.stack_button.add_class("hw-buildup-search")
         self.sweep_result = widgets.HTML("")
         self.sweep_result.add_class("hw-sweep-result")
+        self.mc_result = widgets.HTML("")
+        self.mc_result.add_class("hw-mc-result")
+        self.stack_result = widgets.HTML("")
+        self.stack_result.add_class("hw-stack-result")
 
         left = widgets.VBox([
             section("Candidates"), self.picker.box,
@@ -261,8 +275,8 @@ class Workbench(widgets.VBox):
             section("Scenario file (inputs, candidates and the chosen one, for the meeting to re-run)"),
             self.scenario_bar.box,
             section("Long computations"),
-            widgets.HBox([self.sweep_button, self.runner.box]),
-            self.sweep_result,
+            widgets.HBox([widgets.VBox([self.sweep_button, self.mc_button, self.stack_button]), self.runner.box]),
+            self.sweep_result, self.mc_result, self.stack_result,
         ]
 
         self.system_toggle.observe(lambda c: self._guard(self._set_system, c["new"]), "value")
@@ -273,6 +287,8 @@ class Workbench(widgets.VBox):
         for d in (self.crit_x, self.crit_y, self.crit_c):
             d.observe(lambda _: self._guard(self._set_criteria), "value")
         self.sweep_button.on_click(lambda _: self._guard(self.start_fine_sweep))
+        self.mc_button.on_click(lambda _: self._guard(self.start_rank_stability))
+        self.stack_button.on_click(lambda _: self._guard(self.start_buildup_search))
 
     # ------------------------------------------------------------- plumbing
     def _guard(self, fn, *args):
@@ -628,6 +644,79 @@ class Workbench(widgets.VBox):
                                        f"({result.size:,} flux values).</div>")
 
         return self.runner.run(fine_sweep, snapshot, lt, dts, on_done=done, background=background, chunk=16)
+
+    def start_rank_stability(self, background: bool = True, n_samples: int = 20000):
+        """Monte Carlo over the conductivity tolerances (:meth:`WallStudy.uncertainty`), cancellable.
+
+        Shows, per candidate, the P10/P50/P90 of the total thickness it needs to
+        meet the budget, and the chance of being the thinnest, lightest and
+        cheapest (ties split evenly).
+        """
+        snapshot = dataclasses.replace(self.study)
+        labels, system, cur = self.labels, self.system, self.currency
+
+        def task(progress, cancelled):
+            frame = snapshot.uncertainty(n_samples=n_samples, progress=progress, cancel=cancelled)
+            if frame.attrs["cancelled"]:
+                raise Cancelled(f"stopped after {frame.attrs['n_samples']:,} of {n_samples:,} samples; "
+                                "no estimate shown")
+            return frame
+
+        def done(frame):
+            kinds = (("Candidate", None), ("Total thickness needed, P10", "thickness"), ("P50", "thickness"),
+                     ("P90", "thickness"), ("P(thinnest)", "flag"), ("P(lightest)", "flag"), ("P(cheapest)", "flag"))
+            head = "".join(header_cell(t, k, system, cur) for t, k in kinds)
+            rows = []
+            for lab, (_, r) in zip(labels, frame.iterrows(), strict=True):
+                rows.append("<tr>" + cell(lab, None, system)
+                            + "".join(cell(r[f"total_thickness_{q}"], "thickness", system) for q in ("p10", "p50", "p90"))
+                            + "".join(f"<td>{100 * r[f'p_{w}']:.0f} %</td>" for w in ("thinnest", "lightest", "cheapest"))
+                            + "</tr>")
+            self.mc_result.value = (
+                f'<div class="hw-detail"><b>Rank stability</b> — {frame.attrs["n_samples"]:,} samples; '
+                "conductivity of each sized layer normal with σ = table tolerance/√3 (GUM rectangular), "
+                "propagated by Monte Carlo (JCGM 101:2008). P90: thick enough in 9 of 10 samples.</div>"
+                f'<div class="hw-table"><table><thead><tr>{head}</tr></thead><tbody>{"".join(rows)}</tbody></table></div>')
+
+        return self.runner.run(task, on_done=done, background=background)
+
+    def start_buildup_search(self, background: bool = True, max_layers: int = 3):
+        """Exact search of the build-ups of up to three candidate materials (:meth:`WallStudy.buildup_search`)."""
+        snapshot = dataclasses.replace(self.study)
+        system, cur = self.system, self.currency
+        short = {m: short_label(n) for m, n in snapshot.materials["name"].items()}
+
+        def task(progress, cancelled):
+            return snapshot.buildup_search(max_layers=max_layers, progress=progress, cancel=cancelled)
+
+        def done(frame):
+            ok = frame[frame["meets_budget"]]
+            shown = ok if len(ok) else frame
+            shown = shown.head(8)
+            kinds = (("Build-up (inside → outside as listed)", None), ("Total thickness", "thickness"),
+                     ("U-value", "u_value"), ("Heat flux", "heat_flux"), ("Mass", "mass_per_area"),
+                     ("Cost (demo)", "cost_per_area"))
+            head = "".join(header_cell(t, k, system, cur) for t, k in kinds)
+            rows = []
+            for _, r in shown.iterrows():
+                text = " + ".join(f"{short.get(mid, mid)} {units.format_quantity(t, 'thickness', system)}"
+                                  for mid, t in zip(r["materials"], r["layer_thickness"], strict=True))
+                rows.append("<tr>" + cell(text, None, system) + cell(r["total_thickness"], "thickness", system)
+                            + cell(r["u_value"], "u_value", system) + cell(r["heat_flux"], "heat_flux", system)
+                            + cell(r["mass_per_area"], "mass_per_area", system)
+                            + cell(r["cost_per_area"], "cost_per_area", system) + "</tr>")
+            limit = ("" if snapshot.max_thickness is None else
+                     f" within {units.format_quantity(snapshot.max_thickness, 'thickness', system)}")
+            what = (f"{len(ok)} of them meet the heat budget; the 8 cheapest of those are listed"
+                    if len(ok) else "none meets the heat budget; the first 8 of the front are listed")
+            self.stack_result.value = (
+                f'<div class="hw-detail"><b>Build-up search</b> — {len(frame)} non-dominated build-ups (thermal '
+                f"resistance, mass, cost) of up to {max_layers} different candidate materials{limit}, out of "
+                f"{frame.attrs['n_stacks']:,} stacks scored; {what}. Table conductivities; order the layers "
+                "afterwards and check each layer's service temperature.</div>"
+                f'<div class="hw-table"><table><thead><tr>{head}</tr></thead><tbody>{"".join(rows)}</tbody></table></div>')
+
+        return self.runner.run(task, on_done=done, background=background)
 
     def _show_static(self) -> None:
         """Static mode: show each chart as a plotly figure document in an Output widget."""

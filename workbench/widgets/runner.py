@@ -16,13 +16,10 @@ from collections.abc import Callable
 import ipywidgets as widgets
 import numpy as np
 
+from workbench._checks import Cancelled
 from workbench.widgets.fields import LOG, show_message
 
 __all__ = ["Cancelled", "TaskRunner", "fine_sweep"]
-
-
-class Cancelled(Exception):
-    """Raised inside a task when the user pressed Cancel."""
 
 
 def fine_sweep(study, thicknesses, delta_ts, progress: Callable[[float], None] | None = None,
@@ -101,12 +98,14 @@ class TaskRunner:
             self._last = now
             self.bar.value = float(min(max(fraction, 0.0), 1.0))
 
-    def run(self, func: Callable, *args, on_done: Callable | None = None, background: bool = True, **kwargs):
+    def run(self, func: Callable, *args, on_done: Callable | None = None, on_stop: Callable | None = None,
+            background: bool = True, **kwargs):
         """Run ``func(*args, progress=..., cancelled=..., **kwargs)``.
 
         In the background (a thread) by default; ``background=False`` runs inline
-        and returns the result. ``on_done(result)`` is called after success. A
-        cancelled or failed task shows a message; no exception escapes.
+        and returns the result. ``on_done(result)`` is called after success,
+        ``on_stop(state)`` after a cancelled or failed run (``state`` is
+        ``"cancelled"`` or ``"failed"``). Either shows a message; no exception escapes.
         """
         if self.busy:
             show_message(self.status, "A computation is already running; cancel it first.")
@@ -144,6 +143,11 @@ class TaskRunner:
                         show_message(self.status, f"Showing the result failed: {self.error}")
             finally:
                 self.cancel_button.disabled = True
+            if self.state in ("cancelled", "failed") and on_stop is not None:
+                try:
+                    on_stop(self.state)
+                except Exception:
+                    LOG.exception("task stop handler failed")
 
         if background:
             self._thread = threading.Thread(target=work, name="workbench-task", daemon=True)

@@ -16,6 +16,7 @@ from __future__ import annotations
 
 import dataclasses
 import html
+import threading
 import time
 
 import ipywidgets as widgets
@@ -28,6 +29,7 @@ from workbench.studies.shipper import ShipperStudy
 from workbench.widgets import style
 from workbench.widgets.charts import _base_layout, sync_figure_state
 from workbench.widgets.fields import LOG, UnitField, show_message
+from workbench.widgets.runner import TaskRunner
 from workbench.widgets.parts import (
     cautions_html,
     cell,
@@ -159,8 +161,10 @@ class ShipperPanel(widgets.VBox):
     """
 
     def __init__(self, study: ShipperStudy | None = None, system: str = "SI", title: str | None = None,
-                 coolant_mass: float | None = None):
+                 coolant_mass: float | None = None, background: bool = True):
         units.check_system(system)
+        self.background = bool(background)
+        self._draw_lock = threading.RLock()
         demo = study is None
         self.study = demo_shipper_study() if study is None else study
         if not isinstance(self.study, ShipperStudy):
@@ -193,6 +197,8 @@ class ShipperPanel(widgets.VBox):
         if np.isfinite(ok).any():
             self.thickness = float(np.nanmin(ok))
         self._silent = False
+        self._wanted = (self.study, self.coolant_mass)  # the latest inputs asked for
+        self._gen = 0  # counts recompute requests; a superseded task's result is dropped
         self._build()
         self._redraw()
         super().__init__(children=self._children)
@@ -231,7 +237,10 @@ class ShipperPanel(widgets.VBox):
         hint = widgets.HTML('<div class="hw-hint">The ambient profile keeps its shape; its hottest step moves '
                             "to the value typed. The hold-time runs stop at twice the target. The coolant mass sets the hold-time chart only (the cost chart "
                             "sizes the coolant for the target). A change of a field recomputes every design "
-                            "(about a second); the slider only moves the markers.</div>")
+                            "(a progress bar shows it; Cancel keeps the last result); the slider only moves "
+                            "the markers.</div>")
+        self.runner = TaskRunner("Recompute")
+        self.runner.box.add_class("hw-shipper-progress")
         self.fig_hold = go.FigureWidget(layout=_base_layout(
             "Hold time with a fixed coolant mass", 470, 470, showlegend=True,
             legend=dict(font=dict(size=10), orientation="h", yanchor="top", y=-0.2, x=0),
@@ -266,7 +275,7 @@ class ShipperPanel(widgets.VBox):
         self._children = panel_children(
             self.header, self.system_toggle, self.cautions, self.status,
             [section("Conditions"), self.f_duration.box, self.f_ambient.box, self.f_coolant.box,
-             self.f_rate.box, section("Insulation thickness"), self.slider, hint],
+             self.f_rate.box, section("Insulation thickness"), self.slider, hint, self.runner.box],
             "hw-shipper-inputs", [self.fig_hold, self.fig_cost], "Results per build-up", self.table)
         self.system_toggle.observe(self._toggled, "value")
         self.slider.observe(self._slid, "value")
@@ -280,22 +289,74 @@ class ShipperPanel(widgets.VBox):
 
     # ---------------------------------------------------------------- inputs
     def _apply(self, **changes) -> None:
-        """Recompute with changed study inputs; raises ValueError (shown by the field) if rejected."""
-        new = dataclasses.replace(self.study, **changes)
-        t0 = time.perf_counter()
-        results = new.results()
-        t1 = time.perf_counter()
-        curve = new.hold_curve(self.coolant_mass)
-        self.study, self.results, self.curve = new, results, curve
-        self.timings = {"results": t1 - t0, "hold_curve": time.perf_counter() - t1}
-        self._redraw()
+        """Recompute with changed study inputs; raises ValueError (shown by the field) if rejected.
+
+        The study checks the inputs at once; the simulation runs as a task with a
+        progress bar (in the background unless ``background=False``). Changes made
+        while a task runs build on the inputs it was started with.
+        """
+        new = dataclasses.replace(self._wanted[0], **changes)
+        self._recompute(new, self._wanted[1], full=True)
 
     def _set_coolant_mass(self, mass: float) -> None:
-        t0 = time.perf_counter()
-        curve = self.study.hold_curve(mass)
-        self.coolant_mass, self.curve = float(mass), curve
-        self.timings = {"hold_curve": time.perf_counter() - t0}
-        self._redraw()
+        mass = float(mass)
+        if not (np.isfinite(mass) and mass > 0):
+            raise ValueError(f"coolant mass: must be a positive mass (kg or lb), got {mass!r} kg")
+        study, _ = self._wanted
+        self._recompute(study, mass, full=study is not self.study)
+
+    def _recompute(self, study: ShipperStudy, mass: float, full: bool) -> None:
+        self._gen += 1
+        gen = self._gen
+        if self.runner.busy:  # a newer input supersedes the running task
+            self.runner.cancel()
+            self.runner.wait(60)
+        self._wanted = (study, mass)
+        typed = {f.field: f.text.value for f in self._fields()}
+
+        def task(progress, cancelled):
+            t0 = time.perf_counter()
+            results = study.results(progress=lambda f: progress(0.7 * f), cancel=cancelled) if full else None
+            t1 = time.perf_counter()
+            share = (0.7, 0.3) if full else (0.0, 1.0)
+            curve = study.hold_curve(mass, progress=lambda f: progress(share[0] + share[1] * f), cancel=cancelled)
+            return results, curve, {"results": t1 - t0, "hold_curve": time.perf_counter() - t1}
+
+        def done(out):
+            if gen != self._gen:
+                return
+            results, curve, timings = out
+            with self._draw_lock:
+                if results is not None:
+                    self.study, self.results = study, results
+                self.coolant_mass, self.curve, self.timings = mass, curve, timings
+                self._redraw()
+
+        def stopped(state):
+            if gen != self._gen:  # superseded by a newer input: that one carries on
+                return
+            # back to the inputs the charts show; say what was typed and not applied
+            self._wanted = (self.study, self.coolant_mass)
+            self._show_inputs()
+            lost = [f"{name} {text}" for name, text in typed.items()
+                    if text != {f.field: f.text.value for f in self._fields()}[name]]
+            if lost:
+                self.runner.status.value += (f'<div class="hw-hint">Not applied: {html.escape(", ".join(lost))}. '
+                                             "The fields show the inputs of the charts again.</div>")
+
+        self.runner.run(task, on_done=done, on_stop=stopped, background=self.background)
+
+    def _show_inputs(self) -> None:
+        """Write the inputs of the shown result into the fields."""
+        s = self.study
+        self.f_duration.set_value(s.duration)
+        self.f_ambient.set_value(_peak(s.t_ambient))
+        self.f_coolant.set_value(self.coolant_mass)
+        self.f_rate.set_value(s.rate_per_kg)
+
+    def wait(self, timeout: float | None = 120.0) -> bool:
+        """Wait for a running recompute; True when none is left running."""
+        return self.runner.wait(timeout)
 
     def _slid(self, change) -> None:
         if self._silent or change["new"] is None:
@@ -303,9 +364,10 @@ class ShipperPanel(widgets.VBox):
         guard(self.status, self._set_thickness, float(change["new"]))
 
     def _set_thickness(self, thickness: float) -> None:
-        self.thickness = thickness
-        self._draw_marks()
-        self._draw_table()
+        with self._draw_lock:
+            self.thickness = thickness
+            self._draw_marks()
+            self._draw_table()
 
     def set_system(self, system: str) -> None:
         """Show every value in ``system`` ("SI" or "US"): fields, slider, axes, table."""
@@ -333,6 +395,7 @@ class ShipperPanel(widgets.VBox):
                 raise ValueError(f"set_inputs: unknown field {name!r}; valid: {list(fields)}")
             fields[name].text.value = text
             out[name] = fields[name].error
+            self.wait()  # programmatic input: return once the recompute has finished
         return out
 
     def _fields(self):
@@ -340,6 +403,10 @@ class ShipperPanel(widgets.VBox):
 
     # ---------------------------------------------------------------- drawing
     def _redraw(self) -> None:
+        with self._draw_lock:
+            self._redraw_unlocked()
+
+    def _redraw_unlocked(self) -> None:
         s, sys_, sw, opt = self.study, self.system, self.results.sweep, self.results.optimum
         hours = "time"
         x_label = units.axis_label("thickness", sys_, name="Insulation thickness (sized layer)")
