@@ -676,7 +676,7 @@ class Workbench(widgets.VBox):
                 f'<div class="hw-detail"><b>Rank stability</b> — {frame.attrs["n_samples"]:,} samples; '
                 "conductivity of each sized layer normal with σ = table tolerance/√3 (GUM rectangular), "
                 "propagated by Monte Carlo (JCGM 101:2008). P90: thick enough in 9 of 10 samples.</div>"
-                f'<div class="hw-table"><table><thead><tr>{head}</tr></thead><tbody>{"".join(rows)}</tbody></table></div>')
+                f'<div class="hw-grid"><table><thead><tr>{head}</tr></thead><tbody>{"".join(rows)}</tbody></table></div>')
 
         return self.runner.run(task, on_done=done, background=background)
 
@@ -693,7 +693,7 @@ class Workbench(widgets.VBox):
             ok = frame[frame["meets_budget"]]
             shown = ok if len(ok) else frame
             shown = shown.head(8)
-            kinds = (("Build-up (inside → outside as listed)", None), ("Total thickness", "thickness"),
+            kinds = (("Build-up (layers in any order)", None), ("Total thickness", "thickness"),
                      ("U-value", "u_value"), ("Heat flux", "heat_flux"), ("Mass", "mass_per_area"),
                      ("Cost (demo)", "cost_per_area"))
             head = "".join(header_cell(t, k, system, cur) for t, k in kinds)
@@ -707,14 +707,18 @@ class Workbench(widgets.VBox):
                             + cell(r["cost_per_area"], "cost_per_area", system) + "</tr>")
             limit = ("" if snapshot.max_thickness is None else
                      f" within {units.format_quantity(snapshot.max_thickness, 'thickness', system)}")
-            what = (f"{len(ok)} of them meet the heat budget; the 8 cheapest of those are listed"
-                    if len(ok) else "none meets the heat budget; the first 8 of the front are listed")
+            if len(ok) == 1:
+                what = "1 of them meets the heat budget and is listed"
+            elif len(ok):
+                what = f"{len(ok)} of them meet the heat budget; the {min(8, len(ok))} cheapest of those are listed"
+            else:
+                what = "none meets the heat budget; the first 8 of the front are listed"
             self.stack_result.value = (
                 f'<div class="hw-detail"><b>Build-up search</b> — {len(frame)} non-dominated build-ups (thermal '
                 f"resistance, mass, cost) of up to {max_layers} different candidate materials{limit}, out of "
                 f"{frame.attrs['n_stacks']:,} stacks scored; {what}. Table conductivities; order the layers "
                 "afterwards and check each layer's service temperature.</div>"
-                f'<div class="hw-table"><table><thead><tr>{head}</tr></thead><tbody>{"".join(rows)}</tbody></table></div>')
+                f'<div class="hw-grid"><table><thead><tr>{head}</tr></thead><tbody>{"".join(rows)}</tbody></table></div>')
 
         return self.runner.run(task, on_done=done, background=background)
 

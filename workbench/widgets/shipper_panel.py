@@ -29,7 +29,6 @@ from workbench.studies.shipper import ShipperStudy
 from workbench.widgets import style
 from workbench.widgets.charts import _base_layout, sync_figure_state
 from workbench.widgets.fields import LOG, UnitField, show_message
-from workbench.widgets.runner import TaskRunner
 from workbench.widgets.parts import (
     cautions_html,
     cell,
@@ -41,6 +40,7 @@ from workbench.widgets.parts import (
     panel_children,
     section,
 )
+from workbench.widgets.runner import TaskRunner
 
 __all__ = ["ShipperPanel", "demo_shipper_study", "SHIPPER_PANEL_CAUTIONS", "CostField"]
 

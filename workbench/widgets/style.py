@@ -55,16 +55,17 @@ CSS = """
 .hw-ok { color:#2b8a3e; font-size: 11.5px; }
 .hw-hint { color:#868e96; font-size: 11.5px; line-height: 1.3; }
 .hw-detail { color:#343a40; font-size: 11.5px; line-height: 1.3; }
-.hw-table { overflow-x: auto; max-width: 100%; }
-.hw-table table { border-collapse: collapse; font-size: 12px; width: 100%; }
-.hw-table th { background:#f1f3f5; text-align:right; padding:3px 6px; border-bottom:2px solid #adb5bd;
+.hw-table, .hw-grid { overflow-x: auto; max-width: 100%; }
+.hw-table table, .hw-grid table { border-collapse: collapse; font-size: 12px; width: 100%; }
+.hw-table th, .hw-grid th { background:#f1f3f5; text-align:right; padding:3px 6px; border-bottom:2px solid #adb5bd;
   font-weight:600; white-space: normal; vertical-align: bottom; min-width: 64px; line-height: 1.25; }
-.hw-table th.hw-l, .hw-table td.hw-l { text-align:left; }
-.hw-table td { text-align:right; padding:2px 6px; border-bottom:1px solid #e9ecef; white-space: nowrap; }
-.hw-table tr.hw-chosen td { background:#fff4e6; font-weight:600; }
-.hw-table tr.hw-chosen td:first-child { box-shadow: inset 4px 0 0 #d9480f; }
-.hw-table td.hw-bad { color:#c92a2a; }
-.hw-table td.hw-src { color:#868e96; font-size:11px; max-width: 260px; overflow:hidden; text-overflow: ellipsis; }
+.hw-table th.hw-l, .hw-table td.hw-l, .hw-grid th.hw-l, .hw-grid td.hw-l { text-align:left; }
+.hw-table td, .hw-grid td { text-align:right; padding:2px 6px; border-bottom:1px solid #e9ecef; white-space: nowrap; }
+.hw-table tr.hw-chosen td, .hw-grid tr.hw-chosen td { background:#fff4e6; font-weight:600; }
+.hw-table tr.hw-chosen td:first-child, .hw-grid tr.hw-chosen td:first-child { box-shadow: inset 4px 0 0 #d9480f; }
+.hw-table td.hw-bad, .hw-grid td.hw-bad { color:#c92a2a; }
+.hw-table td.hw-src, .hw-grid td.hw-src { color:#868e96; font-size:11px; max-width: 260px; overflow:hidden; text-overflow: ellipsis; }
+.hw-grid td.hw-l { white-space: normal; min-width: 240px; }
 .hw-panel { background:#f8f9fa; border:1px solid #e9ecef; border-radius:6px; padding:4px 8px; }
 </style>
 """
