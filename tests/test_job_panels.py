@@ -277,6 +277,16 @@ def test_housing_bad_input_keeps_last_result(house):
         assert np.array_equal(old, np.asarray(tr.y, float))
 
 
+def test_housing_contact_time_shows_in_minutes_and_bare_numbers_read_as_minutes(house):
+    assert house.f_contact.text.value == "10 min"  # 600 s in the demo study
+    assert house.set_inputs(contact="12") == {"contact": ""}
+    assert house.study.contact_duration == pytest.approx(12 * constants.minute)
+    assert house.set_inputs(contact="0.25 h") == {"contact": ""}
+    assert house.study.contact_duration == pytest.approx(0.25 * constants.hour)
+    house.set_system("US")
+    assert house.f_contact.text.value == "15 min"
+
+
 def test_housing_without_component_uses_mean_surface(house_study):
     study = dataclasses.replace(house_study, candidates=house_study.candidates[:3], component=None)
     p = HousingPanel(study)

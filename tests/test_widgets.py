@@ -17,6 +17,7 @@ table values and the published relations named beside each check:
 from __future__ import annotations
 
 import threading
+from pathlib import Path
 
 import numpy as np
 import plotly.graph_objects as go
@@ -25,8 +26,9 @@ from numpy.testing import assert_allclose
 
 from workbench.materials import load_materials
 from workbench.studies.wall import Candidate, HeatBudget, Layer, WallStudy
-from workbench.widgets import Workbench, fine_sweep, sync_figure_state
+from workbench.widgets import Workbench, fine_sweep
 from workbench.widgets.charts import EACH_TRACE_LIMIT
+from workbench.widgets.plotview import PlotView, figure_spec
 from workbench.widgets.runner import Cancelled, TaskRunner
 from workbench.widgets.style import ACCENT
 
@@ -300,24 +302,42 @@ def test_build_ups_and_films_suffice(materials):
     assert wb.prof_chart.fig.layout.annotations[1].text == "pir_32"
 
 
-def test_sync_figure_state_pushes_current_data():
-    fig = go.FigureWidget(data=[go.Scatter(x=[0, 1], y=[0, 1])], layout=dict(title=dict(text="before")))
-    with fig.batch_update():
-        fig.data[0].y = [5, 6]
-        fig.layout.title.text = "after"
-    assert list(fig._widget_data[0]["y"]) == [0, 1]  # the synced state is stale ...
-    sync_figure_state(fig)
-    assert list(fig._widget_data[0]["y"]) == [5, 6]  # ... until re-synced
-    assert fig._widget_layout["title"]["text"] == "after"
-
-
-def test_workbench_display_resyncs_charts(wb):
+def test_chart_views_hold_the_current_figure_after_every_change(wb):
+    # what the browser draws is the view's synced data and layout: it must follow every change
     wb.s_thick.value = 33.0
-    stale = wb.flux_chart.fig._widget_data  # traces were added after construction
-    assert len(stale) < len(wb.flux_chart.fig.data) or not np.allclose(np.asarray(stale[-1]["x"], float), 33.0)
-    bundle = wb._repr_mimebundle_()
-    assert "application/vnd.jupyter.widget-view+json" in bundle
-    assert_allclose(np.asarray(wb.flux_chart.fig._widget_data[-1]["x"], float), 33.0)
+    for chart in wb._charts():
+        spec = figure_spec(chart.fig)
+        assert chart.view.data == spec["data"] and chart.view.layout == spec["layout"]
+    assert wb.flux_chart.view.data[-1]["x"][0] == pytest.approx(33.0)
+    rev = wb.flux_chart.view.revision
+    wb.s_thick.value = 34.0
+    assert wb.flux_chart.view.revision == rev + 1
+    assert wb.flux_chart.view.data[-1]["x"][0] == pytest.approx(34.0)
+    assert "title" in wb.flux_chart.view.layout and "34" in wb.flux_chart.view.layout["title"]["text"]
+
+
+def test_clicks_in_the_browser_choose_a_candidate(wb):
+    # a click message from the browser on a required-thickness bar or a trade-off point
+    label = wb.req_chart.fig.data[0].y[2]
+    wb.req_chart.view._message(wb.req_chart.view, {"type": "click", "curve": 0, "point": 2}, [])
+    assert wb.labels[wb.highlight.value] == label
+    wb.trade_chart.view._message(wb.trade_chart.view, {"type": "click", "curve": 1, "point": 4}, [])
+    assert wb.highlight.value == 4
+
+
+def test_plot_view_sends_the_packaged_plotly_js_once_asked():
+    import plotly
+
+    view = PlotView(go.Figure(go.Scatter(x=[0, 1], y=[2, 3])))
+    sent = []
+    view.send = lambda content, buffers=None: sent.append((content, buffers))  # capture the reply
+    view._message(view, {"type": "plotly-request"}, [])
+    assert sent[0][0] == {"type": "plotly-source"}
+    js = sent[0][1][0]
+    packaged = Path(plotly.__file__).parent / "package_data" / "plotly.min.js"
+    assert js == packaged.read_bytes() and js.startswith(b"/**\n* plotly.js v")
+    with pytest.raises(ValueError, match="fig"):
+        PlotView({"data": []})
 
 
 def test_fine_sweep_runner_matches_the_study_and_reports_progress(wb):

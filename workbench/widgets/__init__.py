@@ -1,4 +1,4 @@
-"""Interactive workbench for Jupyter (ipywidgets + plotly FigureWidget).
+"""Interactive workbench for Jupyter (ipywidgets + plotly, drawn with Plotly.react).
 
 Only this package imports ipywidgets and plotly's widget classes; nothing
 imports it. Show :class:`Workbench` in one cell::
@@ -11,7 +11,6 @@ and :class:`HousingPanel`, shown the same way.
 """
 
 from workbench.widgets.app import DEMO_CANDIDATES, DEMO_TITLE, Workbench, demo_study
-from workbench.widgets.charts import sync_figure_state
 from workbench.widgets.housing_panel import HousingPanel
 from workbench.widgets.runner import Cancelled, TaskRunner, fine_sweep
 from workbench.widgets.shipper_panel import ShipperPanel
@@ -23,7 +22,6 @@ __all__ = [
     "demo_study",
     "DEMO_CANDIDATES",
     "DEMO_TITLE",
-    "sync_figure_state",
     "TaskRunner",
     "fine_sweep",
     "Cancelled",

@@ -8,7 +8,6 @@ that are updated in place on every change.
 
 from __future__ import annotations
 
-import base64
 import dataclasses
 import html
 import json
@@ -31,11 +30,11 @@ from workbench.widgets.charts import (
     TradeoffChart,
     WallView,
     compute_view,
-    sync_figure_state,
 )
 from workbench.widgets.fields import UnitField, show_message
 from workbench.widgets.parts import cell, guard, header_cell, section
 from workbench.widgets.picker import CandidatePicker, short_label
+from workbench.widgets.plotview import figure_spec
 from workbench.widgets.runner import TaskRunner, fine_sweep
 from workbench.widgets.scenario_bar import ScenarioBar
 from workbench.widgets.table import ResultsTable
@@ -67,35 +66,10 @@ def demo_study(materials: pd.DataFrame | None = None, k_curves: dict | None = No
 
 def static_figure_output(fig) -> dict:
     """One Output-widget entry showing ``fig`` as a plotly figure document (plain JSON lists)."""
-    full = fig.to_plotly_json()
-    spec = json.loads(json.dumps(_plain({"data": full["data"], "layout": full["layout"]})))
+    spec = json.loads(json.dumps(figure_spec(fig)))
     spec["config"] = {"displaylogo": False, "responsive": False}
     return {"output_type": "display_data", "metadata": {},
             "data": {"application/vnd.plotly.v1+json": spec, "text/plain": "<chart>"}}
-
-
-def _plain(obj):
-    """Numpy arrays and scalars to plain lists and numbers (NaN becomes null), recursively."""
-    if isinstance(obj, np.ndarray):
-        if obj.dtype.kind == "f":
-            return [None if not np.isfinite(v) else float(v) for v in obj.ravel()] if obj.ndim == 1 else \
-                [_plain(row) for row in obj]
-        return [_plain(v) for v in obj.tolist()]
-    if isinstance(obj, dict):
-        if "bdata" in obj and "dtype" in obj:  # plotly's typed-array spec
-            arr = np.frombuffer(base64.b64decode(obj["bdata"]), dtype=np.dtype(obj["dtype"]))
-            if "shape" in obj:
-                shape = obj["shape"]
-                arr = arr.reshape([int(n) for n in str(shape).split(",")] if isinstance(shape, str) else shape)
-            return _plain(arr)
-        return {k: _plain(v) for k, v in obj.items()}
-    if isinstance(obj, (list, tuple)):
-        return [_plain(v) for v in obj]
-    if isinstance(obj, np.generic):
-        return obj.item()
-    if isinstance(obj, float) and not np.isfinite(obj):
-        return None
-    return obj
 
 
 class Workbench(widgets.VBox):
@@ -113,11 +87,13 @@ class Workbench(widgets.VBox):
     demo : bool, optional
         Show the "DEMO — invented numbers" badge; default: when no study is given.
     redraw : {"auto", "messages", "static"}
-        How chart changes reach the browser: plotly's change messages to the
-        FigureWidgets ("messages"; "auto" means this, in JupyterLab and Voila
-        alike), or a static figure document per chart replaced after each
-        update ("static": a fallback for front ends without plotly's widget
-        code; each update redraws the whole chart).
+        How chart changes reach the browser: "messages" ("auto" means this,
+        in JupyterLab and Voila alike) sends each chart's changed data and
+        layout to its :class:`~workbench.widgets.plotview.PlotView`, which
+        redraws with ``Plotly.react``; "static" replaces a figure document per
+        chart in an Output widget after each update (a fallback that needs
+        only the front end's plotly renderer; each update redraws the whole
+        chart).
 
     Notes
     -----
@@ -133,9 +109,7 @@ class Workbench(widgets.VBox):
         if redraw not in ("auto", "messages", "static"):
             raise ValueError(f"redraw: unknown {redraw!r}; valid: ['auto', 'messages', 'static']")
         # "static" shows each chart as a plotly figure document in an Output widget,
-        # replaced after every update (the FigureWidgets stay the model). The browser
-        # tests show the change messages applied in place under Voila 0.5 as in
-        # JupyterLab, so "auto" means "messages" everywhere.
+        # replaced after every update (the figures stay the model).
         self.redraw = "messages" if redraw == "auto" else redraw
         demo = study is None if demo is None else bool(demo)
         self.study = demo_study() if study is None else study
@@ -218,9 +192,9 @@ class Workbench(widgets.VBox):
         self.prof_chart = ProfileChart(width=420, height=320)
         for chart, css in ((self.flux_chart, "hw-chart-flux"), (self.req_chart, "hw-chart-required"),
                            (self.trade_chart, "hw-chart-tradeoff"), (self.prof_chart, "hw-chart-profile")):
-            chart.fig.add_class(css)
-        self.req_chart.fig.data[0].on_click(self._clicked_bar)
-        self.trade_chart.fig.data[1].on_click(self._clicked_point)
+            chart.view.add_class(css)
+        self.req_chart.view.on_click(0, self._clicked_bar)
+        self.trade_chart.view.on_click(1, self._clicked_point)
 
         self.table = ResultsTable()
         self.runner = TaskRunner("Progress")
@@ -252,12 +226,12 @@ class Workbench(widgets.VBox):
             section("View"), self.highlight, self.crit_x, self.crit_y, self.crit_c,
         ], layout=w(width="350px", min_width="350px", margin="0 12px 0 0"))
         left.add_class("hw-panel")
-        shown = [c.fig for c in self._charts()]
+        shown = [c.view for c in self._charts()]
         if self.redraw == "static":
             shown = []
             for chart in self._charts():
                 out = widgets.Output(layout=w(width="424px", min_height="320px"))
-                for css in chart.fig._dom_classes:
+                for css in chart.view._dom_classes:
                     out.add_class(css)
                 shown.append(out)
         self.charts = charts = widgets.GridBox(
@@ -335,9 +309,12 @@ class Workbench(widgets.VBox):
         self.req_chart.update(view, self.system)
         self.trade_chart.update(view, self.system, front=self._front(view))
         self.prof_chart.update(view, self.system, self.labels[self._chosen])
-        t2 = time.perf_counter()
         if self.redraw == "static" and getattr(self, "charts", None) is not None:
             self._show_static()
+        else:
+            for chart in self._charts():
+                chart.push()
+        t2 = time.perf_counter()
         self.view = view
         self._summary(view)
         if table:
@@ -499,6 +476,8 @@ class Workbench(widgets.VBox):
             self.trade_chart.update(self.view, self.system, front=self._front(self.view))
             if self.redraw == "static":
                 self._show_static()
+            else:
+                self.trade_chart.push()
 
     def _set_system(self, system: str) -> None:
         self.system = system
@@ -532,14 +511,14 @@ class Workbench(widgets.VBox):
         self._set_candidates_ui()
         self.refresh()
 
-    def _clicked_bar(self, trace, points, _state) -> None:
-        if points.point_inds:
-            label = trace.y[points.point_inds[0]]
-            self._guard(lambda: setattr(self.highlight, "value", self.labels.index(label)))
+    def _clicked_bar(self, point: int) -> None:
+        """A click on a required-thickness bar chooses that candidate."""
+        label = self.req_chart.fig.data[0].y[point]
+        self._guard(lambda: setattr(self.highlight, "value", self.labels.index(label)))
 
-    def _clicked_point(self, _trace, points, _state) -> None:
-        if points.point_inds:
-            self._guard(lambda: setattr(self.highlight, "value", int(points.point_inds[0])))
+    def _clicked_point(self, point: int) -> None:
+        """A click on a trade-off point chooses that candidate."""
+        self._guard(lambda: setattr(self.highlight, "value", int(point)))
 
     @staticmethod
     def _header_html(title: str, demo: bool) -> str:
@@ -737,9 +716,9 @@ class Workbench(widgets.VBox):
         return (self.flux_chart, self.req_chart, self.trade_chart, self.prof_chart)
 
     def resync(self) -> Workbench:
-        """Push every chart's full current state to its widget model (see :func:`sync_figure_state`)."""
-        for chart in (self.flux_chart, self.req_chart, self.trade_chart, self.prof_chart):
-            sync_figure_state(chart.fig)
+        """Push every chart's current state to its view (a view shows the synced state when created)."""
+        for chart in self._charts():
+            chart.push()
         return self
 
     def _repr_mimebundle_(self, **kwargs):

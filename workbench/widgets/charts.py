@@ -1,9 +1,11 @@
-"""The workbench charts: plotly FigureWidgets created once, updated in place.
+"""The workbench charts: figures created once, updated in place.
 
-Each chart owns one :class:`plotly.graph_objects.FigureWidget`. Its traces are
+Each chart owns one :class:`plotly.graph_objects.Figure` and the
+:class:`~workbench.widgets.plotview.PlotView` that shows it. Its traces are
 laid out when the candidate set changes (:meth:`set_candidates`) and only
-their data are replaced afterwards, inside ``fig.batch_update()``
-(:meth:`update`), so a slider move never rebuilds a figure.
+their data are replaced afterwards (:meth:`update`); :meth:`push` sends what
+changed and the browser redraws with ``Plotly.react``, so a slider move never
+rebuilds a figure.
 
 All numbers come from a :class:`WallView`, computed from the study object by
 :func:`compute_view`; the charts only convert units and draw.
@@ -20,11 +22,11 @@ import plotly.graph_objects as go
 from workbench import units
 from workbench.studies.wall import WallStudy
 from workbench.widgets import style
+from workbench.widgets.plotview import PlotView
 
 __all__ = [
     "WallView",
     "compute_view",
-    "sync_figure_state",
     "wants_log",
     "FluxChart",
     "RequiredChart",
@@ -39,22 +41,6 @@ __all__ = [
 EACH_TRACE_LIMIT = 12
 #: The required-thickness bar chart shows at most this many (the thinnest).
 BAR_LIMIT = 20
-
-
-def sync_figure_state(fig: go.FigureWidget) -> go.FigureWidget:
-    """Copy a FigureWidget's current data and layout into its synced widget state.
-
-    A FigureWidget sends its full state when built and when displayed on its
-    own; later updates travel as change messages only. A figure shown inside a
-    container, or served by an app server after programmatic updates, would
-    otherwise show its construction-time state. Call this before displaying.
-
-    Returns the figure.
-    """
-    # The only use of plotly's private display hook: it refreshes
-    # ``_widget_data`` and ``_widget_layout`` from the figure's current state.
-    fig._repr_mimebundle_()
-    return fig
 
 
 def wants_log(values, decades: float = 1.3) -> bool:
@@ -184,7 +170,8 @@ class _Chart:
     css = ""
 
     def __init__(self, layout: dict):
-        self.fig = go.FigureWidget(layout=layout)
+        self.fig = go.Figure(layout=layout)
+        self.view = PlotView(self.fig)
         self.labels: list[str] = []
         self.sources: list[str] = []
         self.system = "SI"
@@ -196,6 +183,10 @@ class _Chart:
         self.sources = [style.short_source(s) for s in sources]
         self.currency = currency
         self._drawn = {}
+
+    def push(self) -> bool:
+        """Send the figure's changes to the browser (True if anything changed)."""
+        return self.view.push()
 
     def _changed(self, name: str, key) -> bool:
         """True (and remember ``key``) when ``name`` must be redrawn."""

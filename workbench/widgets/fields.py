@@ -50,6 +50,9 @@ class UnitField:
         rejects the value), which is shown beside the field like a unit error.
     system : {"SI", "US"}
         Display system of the text written back into the field.
+    unit : str, optional
+        Show the value in this unit in both systems (e.g. ``"min"`` for a
+        contact time) instead of the kind's display unit.
     currency : str, optional
         Currency code for cost kinds.
 
@@ -67,7 +70,9 @@ class UnitField:
         on_change: Callable[[float], None],
         system: str = "SI",
         css: str = "",
+        unit: str | None = None,
     ):
+        self.unit = unit
         self.kind = kind
         self.field = field
         self.value_si = float(value_si)
@@ -100,7 +105,10 @@ class UnitField:
     def _write(self, value_si: float) -> None:
         self._silent = True
         try:
-            self.text.value = units.format_quantity(value_si, self.kind, self.system, sig=4)
+            if self.unit is None:
+                self.text.value = units.format_quantity(value_si, self.kind, self.system, sig=4)
+            else:
+                self.text.value = f"{float(units.from_si(value_si, self.kind, self.system, unit=self.unit)):.4g} {self.unit}"
         finally:
             self._silent = False
 
@@ -125,7 +133,7 @@ class UnitField:
     def _changed(self, change) -> None:
         if self._silent:
             return
-        default = units.KINDS[self.kind].display[self.system][0]
+        default = self.unit or units.KINDS[self.kind].display[self.system][0]
         try:
             value = units.parse(change["new"], self.kind, self.field, default_unit=default)
             self._on_change(value)

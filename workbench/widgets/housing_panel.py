@@ -24,7 +24,7 @@ import plotly.graph_objects as go
 from workbench import units
 from workbench.studies.housing import HOUSING_CAUTIONS, Component, HousingStudy
 from workbench.widgets import style
-from workbench.widgets.charts import _affine, _base_layout, sync_figure_state
+from workbench.widgets.charts import _affine, _base_layout
 from workbench.widgets.fields import UnitField, show_message
 from workbench.widgets.parts import (
     cautions_html,
@@ -37,6 +37,7 @@ from workbench.widgets.parts import (
     panel_children,
     section,
 )
+from workbench.widgets.plotview import PlotView
 
 __all__ = ["HousingPanel", "demo_housing_study", "HOUSING_PANEL_CAUTIONS"]
 
@@ -167,7 +168,7 @@ class HousingPanel(widgets.VBox):
         self.f_ambient = UnitField("Ambient", "temperature", "ambient temperature", s.t_ambient,
                                    lambda v: self._apply(t_ambient=v), sys_, "hw-housing-ambient")
         self.f_contact = UnitField("Touch contact", "time", "contact duration", s.contact_duration,
-                                   lambda v: self._apply(contact_duration=v), sys_, "hw-housing-contact")
+                                   lambda v: self._apply(contact_duration=v), sys_, "hw-housing-contact", unit="min")
         self.slider = widgets.FloatSlider(description="Power", continuous_update=False, readout_format=".3g",
                                           style={"description_width": "118px"}, layout=w(width="330px"))
         self.slider.add_class("hw-housing-power-slider")
@@ -179,12 +180,13 @@ class HousingPanel(widgets.VBox):
         line = dict(type="line", xref="x", yref="paper", x0=0, x1=0, y0=0, y1=1,
                     line=dict(color="#495057", width=1, dash="dot"))
         legend = dict(font=dict(size=10), orientation="h", yanchor="top", y=-0.2, x=0)
-        self.fig_eps = go.FigureWidget(layout=_base_layout("Mean surface temperature vs emissivity", 470, 540,
+        self.fig_eps = go.Figure(layout=_base_layout("Mean surface temperature vs emissivity", 425, 540,
                                                            showlegend=True, legend=legend))
-        self.fig_pow = go.FigureWidget(layout=_base_layout("Hot-spot temperature vs power", 470, 540,
+        self.fig_pow = go.Figure(layout=_base_layout("Hot-spot temperature vs power", 425, 540,
                                                            showlegend=True, legend=legend, shapes=[line]))
-        self.fig_eps.add_class("hw-housing-chart-emissivity")
-        self.fig_pow.add_class("hw-housing-chart-power")
+        self.view_eps, self.view_pow = PlotView(self.fig_eps), PlotView(self.fig_pow)
+        self.view_eps.add_class("hw-housing-chart-emissivity")
+        self.view_pow.add_class("hw-housing-chart-power")
         n = len(s.names)
         for fig in (self.fig_eps, self.fig_pow):
             fig.add_traces([go.Scatter(name=nm, mode="lines", line=dict(width=1.8, color=style.candidate_colour(i)))
@@ -206,7 +208,7 @@ class HousingPanel(widgets.VBox):
             self.header, self.system_toggle, self.cautions, self.status,
             [section("Conditions"), self.f_power.box, self.f_ambient.box, self.f_contact.box,
              section("Power"), self.slider, hint, self.notes],
-            "hw-housing-inputs", [self.fig_eps, self.fig_pow],
+            "hw-housing-inputs", [self.view_eps, self.view_pow],
             "Results per candidate (pass/fail against the touch and inside-air limits)", self.table)
         self.system_toggle.observe(self._toggled, "value")
         self.slider.observe(self._slid, "value")
@@ -299,6 +301,10 @@ class HousingPanel(widgets.VBox):
         return [float(r.loc[r["touch_class"] == cls, "touch_limit"].iloc[0]) for cls in self.classes]
 
     def _redraw(self) -> None:
+        self._redraw_figures()
+        self.resync()
+
+    def _redraw_figures(self) -> None:
         s, sys_, r = self.study, self.system, self.results
         ut = units.display_unit("temperature", sys_)
         up = units.display_unit("power", sys_)
@@ -381,8 +387,8 @@ class HousingPanel(widgets.VBox):
     # ------------------------------------------------------------ display
     def resync(self) -> HousingPanel:
         """Push both charts' full current state to their widget models."""
-        sync_figure_state(self.fig_eps)
-        sync_figure_state(self.fig_pow)
+        self.view_eps.push()
+        self.view_pow.push()
         return self
 
     def _repr_mimebundle_(self, **kwargs):

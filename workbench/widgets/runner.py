@@ -65,10 +65,10 @@ def fine_sweep(study, thicknesses, delta_ts, progress: Callable[[float], None] |
 class TaskRunner:
     """A progress bar, a cancel button and a status line for one task at a time."""
 
-    def __init__(self, label: str = "Working"):
+    def __init__(self, label: str = "Working", width: str = "230px"):
         self.bar = widgets.FloatProgress(value=0.0, min=0.0, max=1.0, description=label,
                                          style={"description_width": "90px"},
-                                         layout=widgets.Layout(width="320px"))
+                                         layout=widgets.Layout(width=f"calc({width} + 90px)"))
         self.cancel_button = widgets.Button(description="Cancel", icon="stop", disabled=True,
                                             layout=widgets.Layout(width="90px"))
         self.status = widgets.HTML("")

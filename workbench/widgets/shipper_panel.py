@@ -27,7 +27,7 @@ import plotly.graph_objects as go
 from workbench import units
 from workbench.studies.shipper import ShipperStudy
 from workbench.widgets import style
-from workbench.widgets.charts import _base_layout, sync_figure_state
+from workbench.widgets.charts import _base_layout
 from workbench.widgets.fields import LOG, UnitField, show_message
 from workbench.widgets.parts import (
     cautions_html,
@@ -40,6 +40,7 @@ from workbench.widgets.parts import (
     panel_children,
     section,
 )
+from workbench.widgets.plotview import PlotView
 from workbench.widgets.runner import TaskRunner
 
 __all__ = ["ShipperPanel", "demo_shipper_study", "SHIPPER_PANEL_CAUTIONS", "CostField"]
@@ -239,20 +240,21 @@ class ShipperPanel(widgets.VBox):
                             "sizes the coolant for the target). A change of a field recomputes every design "
                             "(a progress bar shows it; Cancel keeps the last result); the slider only moves "
                             "the markers.</div>")
-        self.runner = TaskRunner("Recompute")
+        self.runner = TaskRunner("Recompute", width="150px")
         self.runner.box.add_class("hw-shipper-progress")
-        self.fig_hold = go.FigureWidget(layout=_base_layout(
-            "Hold time with a fixed coolant mass", 470, 470, showlegend=True,
+        self.fig_hold = go.Figure(layout=_base_layout(
+            "Hold time with a fixed coolant mass", 425, 470, showlegend=True,
             legend=dict(font=dict(size=10), orientation="h", yanchor="top", y=-0.2, x=0),
             shapes=[dict(type="line", xref="x", yref="paper", x0=0, x1=0, y0=0, y1=1,
                          line=dict(color="#495057", width=1, dash="dot"))]))
-        self.fig_cost = go.FigureWidget(layout=_base_layout(
-            "Landed cost per shipment (coolant sized for the target)", 470, 470, showlegend=True,
+        self.fig_cost = go.Figure(layout=_base_layout(
+            "Landed cost per shipment (coolant sized for the target)", 425, 470, showlegend=True,
             legend=dict(font=dict(size=10), orientation="h", yanchor="top", y=-0.2, x=0),
             shapes=[dict(type="line", xref="x", yref="paper", x0=0, x1=0, y0=0, y1=1,
                          line=dict(color="#495057", width=1, dash="dot"))]))
-        self.fig_hold.add_class("hw-shipper-chart-hold")
-        self.fig_cost.add_class("hw-shipper-chart-cost")
+        self.view_hold, self.view_cost = PlotView(self.fig_hold), PlotView(self.fig_cost)
+        self.view_hold.add_class("hw-shipper-chart-hold")
+        self.view_cost.add_class("hw-shipper-chart-cost")
         n = len(s.names)
         hold_traces = [go.Scatter(name=nm, mode="lines", line=dict(width=2, color=style.candidate_colour(i)))
                        for i, nm in enumerate(s.names)]
@@ -276,7 +278,7 @@ class ShipperPanel(widgets.VBox):
             self.header, self.system_toggle, self.cautions, self.status,
             [section("Conditions"), self.f_duration.box, self.f_ambient.box, self.f_coolant.box,
              self.f_rate.box, section("Insulation thickness"), self.slider, hint, self.runner.box],
-            "hw-shipper-inputs", [self.fig_hold, self.fig_cost], "Results per build-up", self.table)
+            "hw-shipper-inputs", [self.view_hold, self.view_cost], "Results per build-up", self.table)
         self.system_toggle.observe(self._toggled, "value")
         self.slider.observe(self._slid, "value")
 
@@ -367,6 +369,7 @@ class ShipperPanel(widgets.VBox):
         with self._draw_lock:
             self.thickness = thickness
             self._draw_marks()
+            self.resync()
             self._draw_table()
 
     def set_system(self, system: str) -> None:
@@ -405,6 +408,7 @@ class ShipperPanel(widgets.VBox):
     def _redraw(self) -> None:
         with self._draw_lock:
             self._redraw_unlocked()
+            self.resync()
 
     def _redraw_unlocked(self) -> None:
         s, sys_, sw, opt = self.study, self.system, self.results.sweep, self.results.optimum
@@ -501,8 +505,8 @@ class ShipperPanel(widgets.VBox):
     # ------------------------------------------------------------ display
     def resync(self) -> ShipperPanel:
         """Push both charts' full current state to their widget models."""
-        sync_figure_state(self.fig_hold)
-        sync_figure_state(self.fig_cost)
+        self.view_hold.push()
+        self.view_cost.push()
         return self
 
     def _repr_mimebundle_(self, **kwargs):
