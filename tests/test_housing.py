@@ -319,3 +319,17 @@ def test_inner_faces_face_the_other_way():
     # A/P of the lid (Incropera 7th ed. §9.6.3, from memory)
     assert_allclose(f.length_outside[top], 0.2 * 0.1 / (2 * (0.2 + 0.1)))
     assert_allclose(f.length_inside[top], 0.196 * 0.096 / (2 * (0.196 + 0.096)))
+
+
+def test_root_search_keeps_a_bracket_and_converges_superlinearly():
+    # increasing residuals with known roots (common-practice check: x³ = 8 -> 2; e^x = 50 -> ln 50);
+    # bisection from a 1 K start bracket needs about log2(width/tol) = 27 halvings here
+    from workbench.housing import _bisect
+
+    root, it = _bisect(lambda x: x**3 - 8.0, np.array([0.0, 0.0]), 1.0, 1e-6, 200, "test")
+    assert root == pytest.approx([2.0, 2.0], abs=1e-6)
+    assert it <= 15
+    root, _ = _bisect(lambda x: np.exp(x) - 50.0, np.array([0.0]), 1.0, 1e-9, 200, "test")
+    assert root == pytest.approx([np.log(50.0)], abs=1e-9)
+    with pytest.raises(RuntimeError, match="no solution within"):
+        _bisect(lambda x: -np.ones_like(x), np.array([0.0]), 1.0, 1e-6, 50, "test", max_rise=10.0)

@@ -244,7 +244,7 @@ def _face_h(t_surface, t_air, lengths, orientations):
 
 
 def _bisect(residual, low, step, tolerance, max_iterations, what, max_rise=5000.0):
-    """Vectorised bracketed bisection for an increasing residual with residual(low) <= 0.
+    """Vectorised bracketed root search for an increasing residual with residual(low) <= 0.
 
     The bracket is widened by doubling up to ``max_rise`` [K] above ``low``; a
     residual that is not finite, or no sign change within that range, raises
@@ -273,12 +273,31 @@ def _bisect(residual, low, step, tolerance, max_iterations, what, max_rise=5000.
         raise RuntimeError(
             f"{what}: no solution within {max_rise:g} K of the start for candidates {bad}"
         )
+    # Illinois regula falsi: the bracket stays valid every step (so the answer is
+    # as safe as bisection's), but the end kept twice in a row has its residual
+    # halved, which makes convergence superlinear; a step closer than a quarter
+    # tolerance to an end steps over it so the bracket closes.
+    rlo = np.minimum(checked(lo), 0.0)
+    rhi = np.maximum(checked(hi), 0.0)
+    kept = np.zeros(np.shape(lo), dtype=int)  # -1: lo kept last step, +1: hi kept
     it = 0
     while it < max_iterations and np.any(hi - lo > tolerance):
-        mid = 0.5 * (lo + hi)
-        neg = checked(mid) < 0
-        lo = np.where(neg, mid, lo)
-        hi = np.where(neg, hi, mid)
+        active = hi - lo > tolerance
+        denom = rhi - rlo
+        with np.errstate(divide="ignore", invalid="ignore"):
+            x = np.where(denom > 0, lo - rlo * (hi - lo) / denom, 0.5 * (lo + hi))
+        eps = 0.25 * tolerance
+        x = np.clip(x, lo + eps, hi - eps)
+        x = np.where(np.isfinite(x), x, 0.5 * (lo + hi))
+        rx = checked(x)
+        neg = rx < 0
+        move_lo = active & neg
+        move_hi = active & ~neg
+        lo, rlo = np.where(move_lo, x, lo), np.where(move_lo, rx, rlo)
+        hi, rhi = np.where(move_hi, x, hi), np.where(move_hi, rx, rhi)
+        rhi = np.where(move_lo & (kept == 1), 0.5 * rhi, rhi)  # hi kept again: halve its residual
+        rlo = np.where(move_hi & (kept == -1), 0.5 * rlo, rlo)
+        kept = np.where(move_lo, 1, np.where(move_hi, -1, kept))
         it += 1
     width = hi - lo
     if np.any(width > tolerance):

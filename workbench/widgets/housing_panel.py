@@ -189,7 +189,10 @@ class HousingPanel(widgets.VBox):
         self.view_pow.add_class("hw-housing-chart-power")
         n = len(s.names)
         for fig in (self.fig_eps, self.fig_pow):
-            fig.add_traces([go.Scatter(name=nm, mode="lines", line=dict(width=1.8, color=style.candidate_colour(i)))
+            # the emissivity curves of all candidates nearly coincide: their names (hover) stay out of
+            # that chart's legend; the power chart beside it carries the colour key
+            fig.add_traces([go.Scatter(name=nm, mode="lines", line=dict(width=1.8, color=style.candidate_colour(i)),
+                                       showlegend=fig is self.fig_pow)
                             for i, nm in enumerate(s.names)])
             fig.add_traces([go.Scatter(name=f"touch limit, {cls}", mode="lines",
                                        line=dict(color=style.BUDGET, width=2, dash=_LIMIT_DASH[j % len(_LIMIT_DASH)]))

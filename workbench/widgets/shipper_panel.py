@@ -53,9 +53,8 @@ SHIPPER_PANEL_CAUTIONS = (
     "direct contact with the payload.",
     "Dry ice sublimes to CO₂ gas: never seal it gas-tight (the box can burst), ventilate vehicles and "
     "rooms (asphyxiation risk), and ship it as dangerous goods under the carrier's and air-transport rules.",
-    "These are design estimates: packaging for medicines and other temperature-sensitive goods is "
-    "qualified by testing (thermal chamber and field trials) under the applicable distribution rules.",
 )
+# The study's own cautions follow these; they always include the one on qualification by testing.
 
 
 def demo_shipper_study() -> ShipperStudy:
