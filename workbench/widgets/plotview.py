@@ -64,33 +64,53 @@ async function render({ model, el }) {
   el.classList.add("hw-plotview");
   const gd = document.createElement("div");
   el.appendChild(gd);
-  let Plotly;
-  try {
-    Plotly = await loadPlotly(model);
-  } catch (e) {
-    gd.textContent = "The chart library did not load: " + e;
-    return;
-  }
-  let busy = false, again = false, gone = false;
+  let data = null, layout = null, revision = -1, gone = false, busy = false, again = false;
+  let Plotly = null;
   const draw = async () => {
+    if (!Plotly || data === null) return;
     if (busy) { again = true; return; }
     busy = true;
     try {
       do {
         again = false;
         if (gone) break;
-        await Plotly.react(gd, model.get("data"), model.get("layout"), model.get("config"));
-        gd.dataset.hwRevision = String(model.get("revision"));
+        await Plotly.react(gd, data, layout, model.get("config"));
+        gd.dataset.hwRevision = String(revision);
       } while (again);
     } finally { busy = false; }
   };
+  // full state on arrival (a page opened late sees the current chart), then patches
+  const onMsg = (msg) => {
+    if (!msg || (msg.type !== "full" && msg.type !== "patch")) return;
+    if (msg.type === "full") {
+      data = msg.data; layout = msg.layout;
+    } else {
+      if (data === null || msg.base !== revision) { model.send({type: "full-request"}); return; }
+      data = data.slice(0, msg.n);
+      for (const [i, tr] of Object.entries(msg.traces)) data[Number(i)] = tr;
+      if (msg.layout) {
+        const template = layout && layout.template;
+        layout = msg.layout;
+        if (!("template" in layout) && template) layout = Object.assign({}, layout, {template});
+      }
+    }
+    revision = msg.revision;
+    draw();
+  };
+  model.on("msg:custom", onMsg);
+  model.send({type: "full-request"});
+  try {
+    Plotly = await loadPlotly(model);
+  } catch (e) {
+    gd.textContent = "The chart library did not load: " + e;
+    return;
+  }
   await draw();
   gd.on("plotly_click", (ev) => {
     const p = ev && ev.points && ev.points[0];
     if (p) model.send({type: "click", curve: p.curveNumber, point: p.pointNumber});
   });
-  model.on("change:revision", draw);
-  return () => { gone = true; Plotly.purge(gd); };
+  return () => { gone = true; model.off("msg:custom", onMsg); Plotly.purge(gd); };
 }
 
 export default { render };
@@ -116,8 +136,20 @@ def plain_json(obj):
     if isinstance(obj, np.ndarray):
         if obj.dtype.kind == "f":
             if obj.ndim == 1:
-                return [float(v) if np.isfinite(v) else None for v in obj.tolist()]
+                out = obj.tolist()
+                bad = ~np.isfinite(obj)
+                if bad.any():
+                    for i in np.flatnonzero(bad).tolist():
+                        out[i] = None
+                return out
             return [plain_json(row) for row in obj]
+        if obj.dtype.kind in "iubUS":
+            return obj.tolist()
+        if obj.dtype.kind == "O" and obj.ndim == 1:
+            try:  # numbers with None gaps (combined line traces): the fast float path
+                return plain_json(obj.astype(float))
+            except (TypeError, ValueError):
+                pass
         return [plain_json(v) for v in obj.tolist()]
     if isinstance(obj, dict):
         if "bdata" in obj and "dtype" in obj:  # plotly's typed-array spec
@@ -142,6 +174,50 @@ def figure_spec(fig: go.Figure) -> dict:
     return {"data": plain_json(full["data"]), "layout": plain_json(full["layout"])}
 
 
+def _snapshot(obj):
+    """A copy of a plotly property tree deep enough to compare later (arrays are not copied:
+    plotly replaces them on assignment and keeps them read-only; the layout's template is kept
+    by reference, as plotly replaces it whole)."""
+    if isinstance(obj, dict):
+        return {k: (v if k == "template" else _snapshot(v)) for k, v in obj.items()}
+    if isinstance(obj, list):
+        return [_snapshot(v) for v in obj]
+    return obj
+
+
+def _same(a, b) -> bool:
+    """Equality of two property trees, arrays compared by value (NaN equal to NaN)."""
+    if a is b:
+        return True
+    if isinstance(a, np.ndarray) or isinstance(b, np.ndarray):
+        try:
+            a, b = np.asarray(a), np.asarray(b)
+            if a.shape != b.shape:
+                return False
+            if a.dtype.kind in "fc" and b.dtype.kind in "fc":
+                return bool(np.array_equal(a, b, equal_nan=True))
+            return bool(np.array_equal(a, b))
+        except (TypeError, ValueError):
+            return False
+    if isinstance(a, dict) and isinstance(b, dict):
+        return a.keys() == b.keys() and all(_same(a[k], b[k]) for k in a)
+    if isinstance(a, (list, tuple)) and isinstance(b, (list, tuple)):
+        return len(a) == len(b) and all(_same(x, y) for x, y in zip(a, b, strict=True))
+    try:
+        return bool(a == b)
+    except (TypeError, ValueError):
+        return False
+
+
+def _raw(fig: go.Figure) -> tuple[list[dict], dict]:
+    """The figure's own property trees (no deep copy); ``to_plotly_json`` where they are missing."""
+    data, layout = getattr(fig, "_data", None), getattr(fig, "_layout", None)
+    if isinstance(data, list) and isinstance(layout, dict):
+        return data, layout
+    full = fig.to_plotly_json()
+    return full["data"], full["layout"]
+
+
 class PlotView(anywidget.AnyWidget):
     """Show a plotly figure and redraw it after :meth:`push`.
 
@@ -152,6 +228,13 @@ class PlotView(anywidget.AnyWidget):
     config : dict, optional
         plotly.js config (default: no logo, not responsive).
 
+    Notes
+    -----
+    A view asks for the full chart when it is created; after that,
+    :meth:`push` sends only the traces (and the layout) that changed since the
+    last push, numbered by a revision, and the view redraws with
+    ``Plotly.react``. A view that missed a revision asks for the full chart again.
+
     Examples
     --------
     >>> fig = go.Figure(go.Scatter(x=[0, 1], y=[1, 2]))
@@ -160,17 +243,14 @@ class PlotView(anywidget.AnyWidget):
     >>> view.push()
     True
     >>> view.data[0]["y"], view.revision
-    ([3, 4], 2)
+    ([3, 4], 1)
     >>> view.push()  # nothing changed: nothing sent
     False
     """
 
     _esm = _ESM
     _css = _CSS
-    data = traitlets.List().tag(sync=True)
-    layout = traitlets.Dict().tag(sync=True)
     config = traitlets.Dict().tag(sync=True)
-    revision = traitlets.Int(0).tag(sync=True)
 
     def __init__(self, fig: go.Figure, config: dict | None = None, **kwargs):
         super().__init__(**kwargs)
@@ -178,24 +258,63 @@ class PlotView(anywidget.AnyWidget):
             raise ValueError(f"fig: expected a plotly.graph_objects.Figure, got {type(fig).__name__}")
         self.fig = fig
         self.config = dict(config) if config is not None else {"displaylogo": False, "responsive": False}
+        self.revision = 0
         self._clicks: dict[int, Callable[[int], None]] = {}
+        self._raw_data: list = []
+        self._raw_layout: dict = {}
+        self._json_data: list = []
+        self._json_layout: dict = {}
         self.on_msg(self._message)
-        self.push()
+        self._take()
+
+    @property
+    def data(self) -> list:
+        """The traces as last sent (plain JSON values)."""
+        return self._json_data
+
+    @property
+    def layout(self) -> dict:
+        """The layout as last sent (plain JSON values)."""
+        return self._json_layout
+
+    def _take(self) -> tuple[dict, dict | None, int]:
+        """Record the figure's current state; return the changed traces, the layout if changed
+        and the number of traces."""
+        data, layout = _raw(self.fig)
+        changed = {}
+        for i, tr in enumerate(data):
+            if i >= len(self._raw_data) or not _same(tr, self._raw_data[i]):
+                changed[i] = tr
+        lay = None if _same(layout, self._raw_layout) else layout
+        n_old = len(self._raw_data)
+        self._raw_data = [_snapshot(tr) if i in changed else self._raw_data[i] for i, tr in enumerate(data)]
+        self._json_data = [plain_json(tr) if i in changed else self._json_data[i] for i, tr in enumerate(data)]
+        sent_layout = None
+        if lay is not None:
+            template = layout.get("template")
+            same_template = template is self._raw_layout.get("template") and "template" in self._json_layout
+            rest = plain_json({k: v for k, v in layout.items() if k != "template"})
+            t_json = self._json_layout["template"] if same_template else plain_json(template)
+            self._raw_layout = _snapshot(layout)
+            self._json_layout = dict(rest, template=t_json) if template is not None else rest
+            # the template (about 10 kB) travels only when it changed
+            sent_layout = rest if same_template else self._json_layout
+        patch = {i: self._json_data[i] for i in changed}
+        return patch, sent_layout, (len(data) if len(data) != n_old else -1)
 
     def push(self) -> bool:
-        """Send the figure's current data and layout if they changed; True if sent."""
-        spec = figure_spec(self.fig)
-        changed = False
-        with self.hold_sync():
-            if spec["data"] != self.data:
-                self.data = spec["data"]
-                changed = True
-            if spec["layout"] != self.layout:
-                self.layout = spec["layout"]
-                changed = True
-            if changed:
-                self.revision += 1
-        return changed
+        """Send what changed in the figure since the last push; True if anything was sent."""
+        patch, layout, n = self._take()
+        if not patch and layout is None and n < 0:
+            return False
+        base = self.revision
+        self.revision += 1
+        msg = {"type": "patch", "base": base, "revision": self.revision, "n": len(self._json_data),
+               "traces": {str(i): tr for i, tr in patch.items()}}
+        if layout is not None:
+            msg["layout"] = layout
+        self.send(msg)
+        return True
 
     def on_click(self, trace: int, callback: Callable[[int], None]) -> None:
         """Call ``callback(point_index)`` when a point of trace number ``trace`` is clicked."""
@@ -210,7 +329,10 @@ class PlotView(anywidget.AnyWidget):
     def _message(self, _widget, content, _buffers) -> None:
         kind = content.get("type") if isinstance(content, dict) else None
         try:
-            if kind == "plotly-request":
+            if kind == "full-request":
+                self.send({"type": "full", "revision": self.revision, "data": self._json_data,
+                           "layout": self._json_layout})
+            elif kind == "plotly-request":
                 self.send({"type": "plotly-source"}, buffers=[_plotly_js()])
             elif kind == "click":
                 self.click(content.get("curve", -1), content.get("point", -1))
