@@ -6,8 +6,8 @@ synthetic here and in the output). Sweep: 200 thickness points.
 
 Measured in the same run:
 * the in-place path: moving the thickness slider, the ΔT slider, and typing a
-  max thickness; the time until every chart's data is updated (the figures'
-  change messages are sent), and separately the results table that follows;
+  max thickness; the time until every chart's changes are sent to its view
+  (PlotView patches), and separately the results table that follows;
 * the baseline: building the four charts from scratch for the same state
   (what a rebuild-on-every-change design would pay).
 
