@@ -170,28 +170,37 @@ def _chart(page, css):
     return page.evaluate(_CHART, [f".{css}"])
 
 
-def _wait_rendered(page, timeout_s: float = 150.0) -> None:
-    page.wait_for_selector(".hw-workbench", timeout=timeout_s * 1000)
+WALL_CHARTS = ("hw-chart-flux", "hw-chart-required", "hw-chart-tradeoff", "hw-chart-profile")
+
+
+def _wait_rendered(page, root: str = "hw-workbench", charts: tuple[str, ...] = WALL_CHARTS, shot: str = "",
+                   timeout_s: float = 180.0) -> None:
+    """Wait until ``.root`` exists and each chart holds data (a screenshot if it never does)."""
+    page.wait_for_selector(f".{root}", timeout=timeout_s * 1000)
     deadline = time.monotonic() + timeout_s
-    for css in ("hw-chart-flux", "hw-chart-required", "hw-chart-tradeoff", "hw-chart-profile"):
+    for css in charts:
         while True:
             c = _chart(page, css)
             if c and c["data"] and all(len(t["y"]) or len(t["x"]) for t in c["data"][:1]):
                 break
             if time.monotonic() > deadline:
                 summary = c and [(t["name"], len(t["x"]), len(t["y"])) for t in c["data"]]
-                page.screenshot(path=str(ARTIFACTS / "failed_render.png"))
+                ARTIFACTS.mkdir(exist_ok=True)
+                page.screenshot(path=str(ARTIFACTS / f"failed_render{'_' + shot if shot else ''}.png"))
                 raise AssertionError(f"{css} did not render data: {summary}")
             page.wait_for_timeout(250)
 
 
-def _measured(page, timeout_s: float = 30.0) -> float:
+def _measured(page, what: str = "", timeout_s: float = 30.0) -> float:
+    """Key press to the first painted frame with changed chart data (probe armed by _ARM) [ms]."""
     deadline = time.monotonic() + timeout_s
     while True:
         hw = page.evaluate("() => window.__hw")
         if hw and hw["t0"] is not None and hw["t1"] is not None:
             return hw["t1"] - hw["t0"]
         if time.monotonic() > deadline:
+            if what:
+                raise AssertionError(f"{what}: the chart did not repaint after the key press ({hw})")
             flux = _chart(page, "hw-chart-flux")
             readout = page.locator(".hw-thickness .widget-readout").inner_text()
             raise AssertionError(f"chart did not repaint after the input: {hw}; readout {readout}; "

@@ -50,9 +50,23 @@ from test_browser import (  # noqa: E402  (helpers and fixtures of the workbench
     _free_port,
     _isolated_env,
     _server,
+    _wait_rendered,
     browser,  # noqa: F401  (pytest fixture)
     timings,  # noqa: F401  (pytest fixture)
 )
+from test_browser import _measured as _measured_wall  # noqa: E402
+
+
+def _record(arrow: list[float], text_ms: float, what: str) -> dict:
+    """The timings of one panel run, for artifacts/interaction_browser.json."""
+    return {
+        "slider_arrow_to_repaint_ms": [round(v, 1) for v in arrow],
+        "slider_arrow_to_repaint_median_ms": round(statistics.median(arrow), 1),
+        "unit_input_enter_to_repaint_ms": round(text_ms, 1),
+        "unit_input": what,
+        "viewport": f"{VIEWPORT['width']}x{VIEWPORT['height']}",
+    }
+
 
 pytestmark = [
     pytest.mark.browser,
@@ -97,32 +111,8 @@ def _serve_and_open(tmp_path, name: str):
     return _server(cmd, tmp_path, env, f"{base}/voila/static/voila.js", tmp_path / "voila.log"), base
 
 
-def _wait_rendered(page, root: str, charts: tuple[str, ...], shot: str, timeout_s: float = 180.0) -> None:
-    page.wait_for_selector(f".{root}", timeout=timeout_s * 1000)
-    deadline = time.monotonic() + timeout_s
-    for css in charts:
-        while True:
-            c = _chart(page, css)
-            if c and c["data"] and all(len(t["x"]) and len(t["y"]) for t in c["data"][:1]):
-                break
-            if time.monotonic() > deadline:
-                summary = c and [(t["name"], len(t["x"]), len(t["y"])) for t in c["data"]]
-                ARTIFACTS.mkdir(exist_ok=True)
-                page.screenshot(path=str(ARTIFACTS / f"failed_render_{shot}.png"))
-                raise AssertionError(f"{css} did not render data: {summary}")
-            page.wait_for_timeout(250)
-
-
 def _measured(page, what: str, timeout_s: float = RECOMPUTE_S) -> float:
-    """Key press to the first painted frame with changed chart data (probe armed by _ARM)."""
-    deadline = time.monotonic() + timeout_s
-    while True:
-        hw = page.evaluate("() => window.__hw")
-        if hw and hw["t0"] is not None and hw["t1"] is not None:
-            return hw["t1"] - hw["t0"]
-        if time.monotonic() > deadline:
-            raise AssertionError(f"{what}: the chart did not repaint after the key press ({hw})")
-        page.wait_for_timeout(20)
+    return _measured_wall(page, what, timeout_s)
 
 
 def _chart_when(page, css, ok, what: str, timeout_s: float = RECOMPUTE_S):
@@ -246,13 +236,7 @@ def test_voila_shipper_panel(browser, tmp_path, timings):  # noqa: F811
             assert _table(page, "hw-shipper-table") == rows_after
             msg.scroll_into_view_if_needed()
             page.screenshot(path=str(ARTIFACTS / "voila_shipper_after_inputs.png"))
-            timings["voila_shipper"] = {
-                "slider_arrow_to_repaint_ms": [round(v, 1) for v in arrow],
-                "slider_arrow_to_repaint_median_ms": round(statistics.median(arrow), 1),
-                "unit_input_enter_to_repaint_ms": round(text_ms, 1),
-                "unit_input": "target hold 48 h -> 60 h (recomputes every design)",
-                "viewport": f"{VIEWPORT['width']}x{VIEWPORT['height']}",
-            }
+            timings["voila_shipper"] = _record(arrow, text_ms, "target hold 48 h -> 60 h (recomputes every design)")
         finally:
             page.close()
 
@@ -326,12 +310,7 @@ def test_voila_housing_panel(browser, tmp_path, timings):  # noqa: F811
             assert _table(page, "hw-housing-table") == rows_after
             msg.scroll_into_view_if_needed()
             page.screenshot(path=str(ARTIFACTS / "voila_housing_after_inputs.png"))
-            timings["voila_housing"] = {
-                "slider_arrow_to_repaint_ms": [round(v, 1) for v in arrow],
-                "slider_arrow_to_repaint_median_ms": round(statistics.median(arrow), 1),
-                "unit_input_enter_to_repaint_ms": round(text_ms, 1),
-                "unit_input": "ambient 35 °C -> 104 °F (recomputes every candidate and both sweeps)",
-                "viewport": f"{VIEWPORT['width']}x{VIEWPORT['height']}",
-            }
+            timings["voila_housing"] = _record(
+                arrow, text_ms, "ambient 35 °C -> 104 °F (recomputes every candidate and both sweeps)")
         finally:
             page.close()
