@@ -531,3 +531,56 @@ def test_buildup_search_button_lists_build_ups_that_meet_the_budget(wb):
     wb.system_toggle.value = "US"
     wb.start_buildup_search(background=False)
     assert "[in]" in wb.stack_result.value and "/ft²]" in wb.stack_result.value
+
+
+def _client(view):
+    """What the browser side of a PlotView holds: the full state, then each patch applied the way
+    the view's JavaScript applies it (records the messages instead of a kernel comm)."""
+    state = {}
+    sent = []
+
+    def send(msg, buffers=None):
+        sent.append(msg)
+        if msg["type"] == "full":
+            state.update(data=list(msg["data"]), layout=msg["layout"], revision=msg["revision"])
+        elif msg["type"] == "patch":
+            assert msg["base"] == state["revision"]
+            data = state["data"][: msg["n"]]
+            for i, c in msg["traces"].items():
+                k = int(i)
+                if k >= len(data):
+                    data.append(None)
+                data[k] = c["full"] if "full" in c else {**data[k], **c["set"]}
+            if "layout" in msg:
+                layout = msg["layout"]
+                if "template" not in layout and "template" in state["layout"]:
+                    layout = {**layout, "template": state["layout"]["template"]}
+                state["layout"] = layout
+            state.update(data=data, revision=msg["revision"])
+
+    view.send = send
+    view._message(view, {"type": "full-request"}, [])
+    return state, sent
+
+
+def test_plot_view_patches_rebuild_the_figure_on_the_client():
+    x = np.linspace(0.0, 1.0, 500)
+    fig = go.Figure([go.Scatter(x=x, y=x**2, text=[f"p{i}" for i in range(500)], name="a"),
+                     go.Scatter(x=[0, 1], y=[1, 0], name="b")], layout=dict(title=dict(text="t0")))
+    view = PlotView(fig)
+    state, sent = _client(view)
+    fig.data[0].y = x**3  # only y changes: text and x are not resent
+    assert view.push()
+    assert set(sent[-1]["traces"]["0"]["set"]) == {"y"} and "layout" not in sent[-1]
+    fig.layout.title.text = "t1"  # layout only, without the template
+    view.push()
+    assert "template" not in sent[-1]["layout"] and sent[-1]["traces"] == {}
+    fig.add_trace(go.Bar(x=["u", "v"], y=[np.nan, 2.0]))  # a new trace (NaN sent as null)
+    fig.data[1].name = None  # a property removed: the whole trace travels
+    view.push()
+    assert "full" in sent[-1]["traces"]["1"] and "full" in sent[-1]["traces"]["2"]
+    fig.data = fig.data[:2]  # a trace removed
+    view.push()
+    spec = figure_spec(fig)
+    assert state["data"] == spec["data"] and state["layout"] == spec["layout"]
+    assert not view.push() and state["revision"] == view.revision == 4

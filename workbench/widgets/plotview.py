@@ -87,7 +87,10 @@ async function render({ model, el }) {
     } else {
       if (data === null || msg.base !== revision) { model.send({type: "full-request"}); return; }
       data = data.slice(0, msg.n);
-      for (const [i, tr] of Object.entries(msg.traces)) data[Number(i)] = tr;
+      for (const [i, c] of Object.entries(msg.traces)) {
+        const k = Number(i);
+        data[k] = c.full ? c.full : Object.assign({}, data[k], c.set);
+      }
       if (msg.layout) {
         const template = layout && layout.template;
         layout = msg.layout;
@@ -231,8 +234,8 @@ class PlotView(anywidget.AnyWidget):
     Notes
     -----
     A view asks for the full chart when it is created; after that,
-    :meth:`push` sends only the traces (and the layout) that changed since the
-    last push, numbered by a revision, and the view redraws with
+    :meth:`push` sends only the trace properties (and the layout) that changed
+    since the last push, numbered by a revision, and the view redraws with
     ``Plotly.react``. A view that missed a revision asks for the full chart again.
 
     Examples
@@ -277,20 +280,39 @@ class PlotView(anywidget.AnyWidget):
         """The layout as last sent (plain JSON values)."""
         return self._json_layout
 
-    def _take(self) -> tuple[dict, dict | None, int]:
-        """Record the figure's current state; return the changed traces, the layout if changed
-        and the number of traces."""
+    def _take(self) -> tuple[dict, dict | None]:
+        """Record the figure's current state; return the trace changes and the layout if changed.
+
+        A trace change is ``{"full": trace}`` for a new trace or one that lost a
+        property, else ``{"set": {property: value}}`` with only the top-level
+        properties that changed (a 40,000-point hover-text array is not resent
+        when only the y values moved).
+        """
         data, layout = _raw(self.fig)
-        changed = {}
+        changes: dict[int, dict] = {}
+        raw_out, json_out = [], []
         for i, tr in enumerate(data):
-            if i >= len(self._raw_data) or not _same(tr, self._raw_data[i]):
-                changed[i] = tr
-        lay = None if _same(layout, self._raw_layout) else layout
-        n_old = len(self._raw_data)
-        self._raw_data = [_snapshot(tr) if i in changed else self._raw_data[i] for i, tr in enumerate(data)]
-        self._json_data = [plain_json(tr) if i in changed else self._json_data[i] for i, tr in enumerate(data)]
+            old = self._raw_data[i] if i < len(self._raw_data) else None
+            if old is None or not set(old) <= set(tr):
+                snap, js = _snapshot(tr), plain_json(tr)
+                changes[i] = {"full": js}
+            else:
+                keys = [k for k in tr if k not in old or not _same(tr[k], old[k])]
+                if not keys:
+                    raw_out.append(old)
+                    json_out.append(self._json_data[i])
+                    continue
+                snap, js = dict(old), dict(self._json_data[i])
+                sets = {}
+                for k in keys:
+                    snap[k] = _snapshot(tr[k])
+                    js[k] = sets[k] = plain_json(tr[k])
+                changes[i] = {"set": sets}
+            raw_out.append(snap)
+            json_out.append(js)
+        self._raw_data, self._json_data = raw_out, json_out
         sent_layout = None
-        if lay is not None:
+        if not _same(layout, self._raw_layout):
             template = layout.get("template")
             same_template = template is self._raw_layout.get("template") and "template" in self._json_layout
             rest = plain_json({k: v for k, v in layout.items() if k != "template"})
@@ -299,18 +321,18 @@ class PlotView(anywidget.AnyWidget):
             self._json_layout = dict(rest, template=t_json) if template is not None else rest
             # the template (about 10 kB) travels only when it changed
             sent_layout = rest if same_template else self._json_layout
-        patch = {i: self._json_data[i] for i in changed}
-        return patch, sent_layout, (len(data) if len(data) != n_old else -1)
+        return changes, sent_layout
 
     def push(self) -> bool:
         """Send what changed in the figure since the last push; True if anything was sent."""
-        patch, layout, n = self._take()
-        if not patch and layout is None and n < 0:
+        n_old = len(self._json_data)
+        changes, layout = self._take()
+        if not changes and layout is None and len(self._json_data) == n_old:
             return False
         base = self.revision
         self.revision += 1
         msg = {"type": "patch", "base": base, "revision": self.revision, "n": len(self._json_data),
-               "traces": {str(i): tr for i, tr in patch.items()}}
+               "traces": {str(i): c for i, c in changes.items()}}
         if layout is not None:
             msg["layout"] = layout
         self.send(msg)
