@@ -716,11 +716,7 @@ class Workbench(widgets.VBox):
         return (self.flux_chart, self.req_chart, self.trade_chart, self.prof_chart)
 
     def resync(self) -> Workbench:
-        """Push every chart's current state to its view (a view shows the synced state when created)."""
+        """Send every chart's changes to the browser (a view opened later asks for the whole chart)."""
         for chart in self._charts():
             chart.push()
         return self
-
-    def _repr_mimebundle_(self, **kwargs):
-        self.resync()
-        return super()._repr_mimebundle_(**kwargs)

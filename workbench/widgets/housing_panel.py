@@ -389,11 +389,7 @@ class HousingPanel(widgets.VBox):
 
     # ------------------------------------------------------------ display
     def resync(self) -> HousingPanel:
-        """Push both charts' full current state to their widget models."""
+        """Send both charts' changes to the browser (a view opened later asks for the whole chart)."""
         self.view_eps.push()
         self.view_pow.push()
         return self
-
-    def _repr_mimebundle_(self, **kwargs):
-        self.resync()
-        return super()._repr_mimebundle_(**kwargs)

@@ -503,11 +503,7 @@ class ShipperPanel(widgets.VBox):
 
     # ------------------------------------------------------------ display
     def resync(self) -> ShipperPanel:
-        """Push both charts' full current state to their widget models."""
+        """Send both charts' changes to the browser (a view opened later asks for the whole chart)."""
         self.view_hold.push()
         self.view_cost.push()
         return self
-
-    def _repr_mimebundle_(self, **kwargs):
-        self.resync()
-        return super()._repr_mimebundle_(**kwargs)
