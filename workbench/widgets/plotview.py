@@ -135,6 +135,8 @@ def plain_json(obj):
 
     >>> plain_json({"y": np.array([1.0, np.nan]), "n": np.int64(3)})
     {'y': [1.0, None], 'n': 3}
+    >>> plain_json(np.array([0.5, None, "10"], dtype=object))  # text stays text
+    [0.5, None, '10']
     """
     if isinstance(obj, np.ndarray):
         if obj.dtype.kind == "f":
@@ -148,12 +150,11 @@ def plain_json(obj):
             return [plain_json(row) for row in obj]
         if obj.dtype.kind in "iubUS":
             return obj.tolist()
-        if obj.dtype.kind == "O" and obj.ndim == 1:
-            try:  # numbers with None gaps (combined line traces): the fast float path
-                return plain_json(obj.astype(float))
-            except (TypeError, ValueError):
-                pass
-        return [plain_json(v) for v in obj.tolist()]
+        items = obj.tolist()
+        if obj.dtype.kind == "O" and obj.ndim == 1 and all(
+                v is None or (isinstance(v, (float, int)) and not isinstance(v, bool)) for v in items):
+            return plain_json(np.array(items, dtype=float))  # numbers with None gaps: the fast path
+        return [plain_json(v) for v in items]
     if isinstance(obj, dict):
         if "bdata" in obj and "dtype" in obj:  # plotly's typed-array spec
             arr = np.frombuffer(base64.b64decode(obj["bdata"]), dtype=np.dtype(obj["dtype"]))
