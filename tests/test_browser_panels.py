@@ -159,6 +159,37 @@ def _arrow_right(page, handle_css: str, chart_css: str, trace: int, n: int = 5) 
     return times
 
 
+def _value_when(page, field_css: str, ok, what: str, timeout_s: float = RECOMPUTE_S) -> str:
+    """The text field's value once ``ok(value)`` holds (the kernel writes it back after a change)."""
+    deadline = time.monotonic() + timeout_s
+    field = page.locator(f".{field_css} input")
+    while True:
+        value = field.input_value()
+        if ok(value):
+            return value
+        if time.monotonic() > deadline:
+            raise AssertionError(f".{field_css}: {what} not reached within {timeout_s} s; last value {value!r}")
+        page.wait_for_timeout(50)
+
+
+def _bad_value_barrier(page, field_css: str, msg_css: str, first: str, second: str) -> str:
+    """Type two bad values in turn and wait until the message names the second.
+
+    The kernel handles widget messages in order, so once the message about ``second`` shows,
+    everything ``first`` could have caused (a recompute, a redraw) has been sent already:
+    a check made after this barrier sees any wrong recompute, with no fixed wait.
+    """
+    msg = page.locator(f".{msg_css} .hw-msg")
+    _type(page, field_css, first)
+    msg.wait_for(timeout=30_000)
+    text = msg.inner_text()
+    _type(page, field_css, second)
+    page.wait_for_function("([sel, want]) => { const m = document.querySelector(sel);"
+                           " return m !== null && m.textContent.includes(want); }",
+                           arg=[f".{msg_css} .hw-msg", second], timeout=30_000)
+    return text
+
+
 def _type(page, field_css: str, text: str) -> None:
     field = page.locator(f".{field_css} input")
     field.scroll_into_view_if_needed()
@@ -223,18 +254,16 @@ def test_voila_shipper_panel(browser, tmp_path, timings):  # noqa: F811
 
             # a bad value: a mass in the time field -> message beside it, last good chart kept
             cost_good = _chart(page, "hw-shipper-chart-cost")
-            _type(page, "hw-shipper-duration", "25 kg")
-            msg = page.locator(".hw-shipper-duration-msg .hw-msg")
-            msg.wait_for(timeout=30_000)
-            text = msg.inner_text()
+            text = _bad_value_barrier(page, "hw-shipper-duration", "hw-shipper-duration-msg", "25 kg", "26 kg")
             assert "target hold time" in text and "duration" in text and " h" in text, text
-            page.wait_for_timeout(1000)  # give a (wrong) recompute time to show up
+            # no recompute was started by either bad value: the task's Cancel button stays disabled
+            assert page.locator(".hw-shipper .hw-cancel").first.is_disabled()
             kept = _chart(page, "hw-shipper-chart-hold")
             assert kept["data"][-2]["y"] == [pytest.approx(60.0)] * 2
             assert [t["y"] for t in _chart(page, "hw-shipper-chart-cost")["data"]] == \
                 [t["y"] for t in cost_good["data"]]
             assert _table(page, "hw-shipper-table") == rows_after
-            msg.scroll_into_view_if_needed()
+            page.locator(".hw-shipper-duration-msg").scroll_into_view_if_needed()
             page.screenshot(path=str(ARTIFACTS / "voila_shipper_after_inputs.png"))
             timings["voila_shipper"] = _record(arrow, text_ms, "target hold 48 h -> 60 h (recomputes every design)")
         finally:
@@ -271,8 +300,9 @@ def test_voila_housing_panel(browser, tmp_path, timings):  # noqa: F811
             p_now = moved["data"][-1]["x"][0]
             _table_when(page, "hw-housing-table", lambda r: _column(r, 5) != _column(rows, 5),
                         "table at the new power")
-            field_power = page.locator(".hw-housing-power input").input_value()
-            assert _num(field_power) == pytest.approx(p_now, rel=2e-3), field_power  # field follows slider
+            # the field follows the slider: the kernel writes it back, so wait for that state
+            _value_when(page, "hw-housing-power", lambda v: _num(v) == pytest.approx(p_now, rel=2e-3),
+                        f"power field showing the slider's {p_now:.3g} W")
 
             # a value with a unit: ambient "104 °F" (= 40 °C exactly, NIST SP 811 B.8) -> everything warmer
             rows_before = _table(page, "hw-housing-table")
@@ -297,18 +327,14 @@ def test_voila_housing_panel(browser, tmp_path, timings):  # noqa: F811
             # a bad value: a mass in the temperature field -> message beside it, last good chart kept
             eps_good = _chart(page, "hw-housing-chart-emissivity")
             pow_good = _chart(page, "hw-housing-chart-power")
-            _type(page, "hw-housing-ambient", "25 kg")
-            msg = page.locator(".hw-housing-ambient-msg .hw-msg")
-            msg.wait_for(timeout=30_000)
-            text = msg.inner_text()
+            text = _bad_value_barrier(page, "hw-housing-ambient", "hw-housing-ambient-msg", "25 kg", "26 kg")
             assert "ambient temperature" in text and "temperature" in text and "°C" in text, text
-            page.wait_for_timeout(1000)  # give a (wrong) recompute time to show up
             assert [t["y"] for t in _chart(page, "hw-housing-chart-emissivity")["data"]] == \
                 [t["y"] for t in eps_good["data"]]
             assert [t["y"] for t in _chart(page, "hw-housing-chart-power")["data"]] == \
                 [t["y"] for t in pow_good["data"]]
             assert _table(page, "hw-housing-table") == rows_after
-            msg.scroll_into_view_if_needed()
+            page.locator(".hw-housing-ambient-msg").scroll_into_view_if_needed()
             page.screenshot(path=str(ARTIFACTS / "voila_housing_after_inputs.png"))
             timings["voila_housing"] = _record(
                 arrow, text_ms, "ambient 35 °C -> 104 °F (recomputes every candidate and both sweeps)")

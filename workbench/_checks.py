@@ -20,7 +20,19 @@ __all__ = [
     "broadcast",
     "broadcast_shape",
     "scalar_or_array",
+    "MAX_TEMPERATURE",
+    "absolute_temperature",
+    "layers",
+    "scalar",
+    "integer",
+    "finite_result",
 ]
+
+#: Highest absolute temperature the numeric core accepts. [K]
+#: No model here is meant for anything near it (the air fits stop at 1000 K, the
+#: materials' service limits lie far below); a larger value is taken as an input
+#: error, e.g. a unit slip, instead of being carried into T³ and T⁴ terms.
+MAX_TEMPERATURE: float = 1.0e4
 
 
 class Cancelled(Exception):
@@ -32,7 +44,18 @@ class ValidityWarning(UserWarning):
 
 
 def as_array(name: str, value, unit: str = "") -> np.ndarray:
-    """Convert ``value`` to a float ndarray, or raise ``ValueError`` naming ``name``."""
+    """Convert ``value`` to a float ndarray, or raise ``ValueError`` naming ``name``.
+
+    ``True``/``False`` (or a boolean array) is refused: a number is meant, and a tick
+    box read as 1 or 0 would be a silent wrong answer.
+    """
+    if _has_bool(value):
+        raise ValueError(f"{name}: expected a number{_unit(unit)}, got a boolean ({value!r:.60})")
+    if value is None:
+        raise ValueError(f"{name}: expected a number{_unit(unit)}, got None")
+    if isinstance(value, str | bytes):
+        raise ValueError(f"{name}: expected a number{_unit(unit)}, got the text {value!r}; "
+                        "parse text with units through workbench.units.parse")
     try:
         arr = np.asarray(value, dtype=float)
     except (TypeError, ValueError):
@@ -40,6 +63,17 @@ def as_array(name: str, value, unit: str = "") -> np.ndarray:
             f"{name}: expected a number{_unit(unit)}, got {value!r}"
         ) from None
     return arr
+
+
+def _has_bool(value) -> bool:
+    """True for a boolean, a boolean array, or a (nested) list or tuple holding a boolean."""
+    if isinstance(value, bool | np.bool_):
+        return True
+    if isinstance(value, np.ndarray):
+        return value.dtype.kind == "b" or (value.dtype == object and any(_has_bool(v) for v in value.flat))
+    if isinstance(value, list | tuple):
+        return any(_has_bool(v) for v in value)
+    return False
 
 
 def _unit(unit: str) -> str:
@@ -79,6 +113,92 @@ def in_range(name: str, value, low: float, high: float, unit: str = "") -> np.nd
             f"{name}: must lie in [{low:g}, {high:g}]{_unit(unit)} (got {_worst(arr, bad)})"
         )
     return arr
+
+
+def absolute_temperature(name: str, value, unit: str = "K") -> np.ndarray:
+    """Return ``value`` as a finite float array of absolute temperatures [K].
+
+    Values <= 0 K (e.g. a Celsius value given where kelvin is meant) and values
+    above :data:`MAX_TEMPERATURE` raise ``ValueError`` naming ``name``.
+    """
+    arr = finite(name, value, unit)
+    if np.any(arr <= 0):
+        raise ValueError(
+            f"{name}: an absolute temperature must be > 0{_unit(unit)} "
+            f"(got {_worst(arr, arr <= 0)}; give kelvin, not °C)"
+        )
+    if np.any(arr > MAX_TEMPERATURE):
+        raise ValueError(
+            f"{name}: must be <= {MAX_TEMPERATURE:g}{_unit(unit)}, the highest absolute "
+            f"temperature the core accepts (got {_worst(arr, arr > MAX_TEMPERATURE)})"
+        )
+    return arr
+
+
+def layers(name: str, arr: np.ndarray, unit: str = "") -> np.ndarray:
+    """Return ``arr`` (already checked) with at least one layer on its last axis.
+
+    An empty layer list raises ``ValueError`` naming ``name``: a sum over no
+    layers would give a resistance of 0 and a U-value of infinity.
+    """
+    arr = np.atleast_1d(arr)
+    if arr.shape[-1] == 0 or arr.size == 0:
+        raise ValueError(
+            f"{name}: need at least one layer{_unit(unit)} on the last axis, got shape {arr.shape}"
+        )
+    return arr
+
+
+def scalar(name: str, value, unit: str = "") -> float:
+    """Return ``value`` as one finite Python float; an array or list raises ``ValueError``."""
+    arr = finite(name, value, unit)
+    if arr.ndim != 0:
+        raise ValueError(f"{name}: expected a single number{_unit(unit)}, got shape {arr.shape}")
+    return float(arr)
+
+
+def integer(name: str, value, minimum: int | None = None, maximum: int | None = None) -> int:
+    """Return ``value`` as a Python int; booleans, fractions, text and None raise.
+
+    A float with an integral value (``2000.0``) is accepted.
+    """
+    if isinstance(value, bool | np.bool_) or value is None or isinstance(value, str | bytes):
+        raise ValueError(f"{name}: expected an integer, got {value!r:.60}")
+    if isinstance(value, int | np.integer):
+        out = int(value)
+    else:
+        arr = finite(name, value)
+        if arr.ndim != 0 or arr != np.floor(arr):
+            raise ValueError(f"{name}: expected an integer, got {value!r:.60}")
+        if abs(float(arr)) > 2**62:
+            raise ValueError(f"{name}: expected an integer of a sensible size, got {float(arr):g}")
+        out = int(arr)
+    if minimum is not None and out < minimum:
+        raise ValueError(f"{name}: must be >= {minimum}, got {out}")
+    if maximum is not None and out > maximum:
+        raise ValueError(f"{name}: must be <= {maximum}, got {out}")
+    return out
+
+
+def finite_result(what: str, result, *names: str):
+    """Return ``result`` if every float in it is finite, else raise ``ValueError``.
+
+    ``result`` is a float, an array, or a tuple of them. The message names the
+    arguments ``names`` the result was computed from: a NaN or an overflow to
+    infinity there means an input far outside any physical range (or a unit
+    slip), and it must not leave the core silently.
+    """
+    parts = result if isinstance(result, tuple) else (result,)
+    for part in parts:
+        if part is None:
+            continue
+        arr = np.asarray(part)
+        if arr.dtype.kind in "fc" and not np.all(np.isfinite(arr)):
+            raise ValueError(
+                f"{what}: the result is not finite (NaN or overflow); check the magnitudes "
+                f"and units of {', '.join(names)}"
+            )
+    return result
 
 
 def _worst(arr: np.ndarray, bad: np.ndarray) -> str:

@@ -35,6 +35,7 @@ __all__ = [
     "evaluation_to_dict",
     "evaluation_to_json",
     "write_text",
+    "text_table",
 ]
 
 FORMULA_PREFIXES = ("=", "+", "-", "@", "\t", "\r")
@@ -194,3 +195,56 @@ def write_text(text: str, path: str | os.PathLike, overwrite: bool = False) -> P
     path = Path(path)
     _atomic_write(path, text, overwrite=overwrite, backup=False)
     return path
+
+
+def _text_cell(value: Any, fmt: str) -> str:
+    if value is None or (isinstance(value, float | np.floating) and math.isnan(value)):
+        return "NaN"
+    if isinstance(value, bool | np.bool_):
+        return "True" if value else "False"
+    if isinstance(value, int | np.integer):
+        return str(int(value))
+    if isinstance(value, float | np.floating):
+        return format(float(value), fmt)
+    return str(value)
+
+
+def text_table(frame: pd.DataFrame | pd.Series, fmt: str = ".3f", *, index: bool = True,
+               formats: dict[str, str] | None = None) -> str:
+    """A fixed-width text table whose layout is ours, not a library's default.
+
+    Numbers are right-aligned and formatted with ``fmt`` (a format spec such as
+    ``".2f"``), or per column with ``formats``; text is left-aligned; columns are
+    separated by two spaces; NaN is written ``NaN``. The same table prints the same
+    on every pandas version, so a notebook can compare it.
+
+    >>> df = pd.DataFrame({"k [W/(m·K)]": [0.035, 0.0221], "ok": [True, False]},
+    ...                   index=pd.Index(["eps", "pir"], name="candidate"))
+    >>> print(text_table(df, ".3f"))
+    candidate  k [W/(m·K)]     ok
+    eps              0.035   True
+    pir              0.022  False
+    """
+    if isinstance(frame, pd.Series):
+        frame = frame.to_frame()
+    formats = dict(formats or {})
+    columns = [str(c) for c in frame.columns]
+    cells = [[_text_cell(v, formats.get(str(c), fmt)) for v in frame[c].tolist()]
+             for c in frame.columns]
+    numeric = [pd.api.types.is_numeric_dtype(frame[c]) or pd.api.types.is_bool_dtype(frame[c])
+               for c in frame.columns]
+    if index:
+        name = frame.index.name if frame.index.name is not None else ""
+        columns.insert(0, str(name))
+        cells.insert(0, [_text_cell(v, fmt) for v in frame.index.tolist()])
+        numeric.insert(0, False)
+    widths = [max([len(h)] + [len(s) for s in col]) for h, col in zip(columns, cells, strict=True)]
+
+    def line(parts: list[str]) -> str:
+        out = [s.rjust(w) if num else s.ljust(w)
+               for s, w, num in zip(parts, widths, numeric, strict=True)]
+        return "  ".join(out).rstrip()
+
+    rows = [line(columns)]
+    rows += [line([col[i] for col in cells]) for i in range(len(frame))]
+    return "\n".join(rows)

@@ -1760,9 +1760,12 @@ def state_dir() -> Path:
 _LAST = "last-scenario.toml"
 
 
-def autosave(scenario: Scenario) -> Path:
-    """Save ``scenario`` as the last-used scenario (atomic; no backup kept)."""
-    folder = state_dir()
+def autosave(scenario: Scenario, folder: str | Path | None = None) -> Path:
+    """Save ``scenario`` as the last-used scenario (atomic; no backup kept).
+
+    ``folder`` is the state folder to write to; by default :func:`state_dir` now.
+    """
+    folder = state_dir() if folder is None else Path(folder)
     folder.mkdir(parents=True, exist_ok=True)
     s = scenario
     if s.materials is not None and s.materials.path is not None:

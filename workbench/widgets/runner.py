@@ -11,6 +11,7 @@ from __future__ import annotations
 
 import threading
 import time
+import weakref
 from collections.abc import Callable
 
 import ipywidgets as widgets
@@ -19,7 +20,7 @@ import numpy as np
 from workbench._checks import Cancelled
 from workbench.widgets.fields import LOG, show_message
 
-__all__ = ["Cancelled", "TaskRunner", "fine_sweep"]
+__all__ = ["Cancelled", "TaskRunner", "fine_sweep", "stop_all_tasks"]
 
 
 def fine_sweep(study, thicknesses, delta_ts, progress: Callable[[float], None] | None = None,
@@ -60,6 +61,27 @@ def fine_sweep(study, thicknesses, delta_ts, progress: Callable[[float], None] |
         if progress is not None:
             progress(stop / dts.size)
     return out
+
+
+# Every runner with a task started, so a kernel shutdown or a test can stop them all.
+_STARTED: weakref.WeakSet[TaskRunner] = weakref.WeakSet()
+
+
+def stop_all_tasks(timeout: float = 30.0) -> int:
+    """Cancel every running background task and wait for each to stop; returns how many ran.
+
+    Raises
+    ------
+    TimeoutError
+        A task did not stop within ``timeout`` seconds.
+    """
+    running = [r for r in list(_STARTED) if r.busy]
+    for r in running:
+        r.cancel()
+    for r in running:
+        if not r.wait(timeout):
+            raise TimeoutError(f"a background task did not stop within {timeout:g} s")
+    return len(running)
 
 
 class TaskRunner:
@@ -151,6 +173,7 @@ class TaskRunner:
 
         if background:
             self._thread = threading.Thread(target=work, name="workbench-task", daemon=True)
+            _STARTED.add(self)
             self._thread.start()
             return None
         work()

@@ -9,14 +9,35 @@ slider drag does not write a file on every step.
 from __future__ import annotations
 
 import threading
+import weakref
 from collections.abc import Callable
+from pathlib import Path
 
 import ipywidgets as widgets
 
 from workbench import scenario as scenario_files
 from workbench.widgets.fields import LOG, show_message
 
-__all__ = ["ScenarioBar"]
+__all__ = ["ScenarioBar", "cancel_pending_autosaves"]
+
+# Every autosave timer not yet fired, so a kernel shutdown or a test can stop them all.
+_PENDING: weakref.WeakSet[threading.Timer] = weakref.WeakSet()
+
+
+def cancel_pending_autosaves() -> int:
+    """Cancel every autosave that is scheduled but not yet written; returns how many.
+
+    A cancelled autosave writes nothing: the scenario shown stays in its workbench,
+    and its next change schedules a new one.
+    """
+    timers = list(_PENDING)
+    for t in timers:
+        t.cancel()
+    for t in timers:
+        if t is not threading.current_thread():
+            t.join(timeout=5.0)
+    _PENDING.clear()
+    return len(timers)
 
 
 class ScenarioBar:
@@ -107,22 +128,33 @@ class ScenarioBar:
         """Note a change: the last-used scenario is written once the inputs settle."""
         if self._delay is None:
             return
+        self.cancel()
+        # Both taken now: the timer never sees a half-made change, and it writes to the state
+        # folder in force when the change was made, not whatever is in force when it fires.
+        scen = self._current()
+        folder = scenario_files.state_dir()
+        self._timer = threading.Timer(self._delay, self._autosave, args=(scen, folder))
+        self._timer.daemon = True
+        _PENDING.add(self._timer)
+        self._timer.start()
+
+    def cancel(self) -> None:
+        """Drop a pending autosave without writing it."""
         if self._timer is not None:
             self._timer.cancel()
-        scen = self._current()  # taken now, so the timer never sees a half-made change
-        self._timer = threading.Timer(self._delay, self._autosave, args=(scen,))
-        self._timer.daemon = True
-        self._timer.start()
+            _PENDING.discard(self._timer)
+            self._timer = None
 
     def flush(self) -> None:
         """Write a pending autosave now (tests, kernel shutdown)."""
-        if self._timer is not None and self._timer.is_alive():
-            self._timer.cancel()
-            self._autosave(self._timer.args[0])
+        timer = self._timer
+        if timer is not None and timer.is_alive():
+            self.cancel()
+            self._autosave(*timer.args)
 
     @staticmethod
-    def _autosave(scen) -> None:
+    def _autosave(scen, folder: Path | None = None) -> None:
         try:
-            scenario_files.autosave(scen)
+            scenario_files.autosave(scen, folder)
         except Exception:  # autosave must never disturb the user
             LOG.exception("autosave failed")
