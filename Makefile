@@ -7,7 +7,7 @@ PORT   ?= 8866
 # JupyterLab refuses to start as root unless told; these machines run as root.
 ROOT_OK := $(if $(filter 0,$(shell id -u)),--allow-root,)
 
-.PHONY: lab app test test-latest lock bench lint clean notebooks
+.PHONY: lab app test test-latest lock bench lint clean notebooks meeting meeting-password
 
 LOCK   := requirements/lock-py311.txt
 UV_VERSION := 0.13.9
@@ -29,6 +29,16 @@ lab: $(STAMP)
 ## make app: serve the wall-comparison notebook as a web app on 127.0.0.1 for a meeting
 app: $(STAMP)
 	$(VENV)/bin/voila notebooks/wall_comparison.ipynb --no-browser --port $(PORT) --Voila.ip=127.0.0.1
+
+## make meeting: the live review meeting: JupyterLab with real-time collaboration on
+## notebooks/review_meeting.ipynb; 127.0.0.1 unless HOST= says otherwise, PORT= too; always a
+## token (random) or the password set with `make meeting-password`; prints the link to share
+meeting: $(STAMP)
+	$(PY) -m workbench.meeting --host "$(HOST)" --port "$(PORT)"
+
+## make meeting-password: set the meeting password (stored as a hash; delete the file it names to go back to tokens)
+meeting-password: $(STAMP)
+	$(PY) -m workbench.meeting password
 
 # The suite: unit tests, published checks and doctests in random order (pytest-randomly), then
 # the notebooks in cell order. The seed is printed first; `make test SEED=N` replays an order.

@@ -101,9 +101,12 @@ def _column(rows, i):
 def _serve_and_open(tmp_path, name: str):
     """A temporary copy of notebooks/<name>.ipynb served by Voila: (server context manager, base URL).
 
-    The notebooks read only the package's own tables (no files beside them), so the copy is alone."""
-    nb = tmp_path / f"{name}.ipynb"
+    The copy sits in ``notebooks/`` beside a copy of ``examples/`` (the shipper notebook reads
+    the demo logger files there), as in the repository."""
+    (tmp_path / "notebooks").mkdir()
+    nb = tmp_path / "notebooks" / f"{name}.ipynb"
     shutil.copy(ROOT / "notebooks" / f"{name}.ipynb", nb)
+    shutil.copytree(ROOT / "examples", tmp_path / "examples")
     env = _isolated_env(tmp_path)
     port = _free_port()
     cmd = [str(BIN / "voila"), str(nb), "--no-browser", f"--port={port}", "--Voila.ip=127.0.0.1"]

@@ -212,7 +212,10 @@ def test_required_thickness_inverts_heat_flux(k, dt, q_max, r_other):
 def test_flux_falls_as_thickness_rises(k, lengths, dt):
     lengths = np.sort(lengths)
     q = wb.heat_flux(k, lengths, dt)
-    assert np.all(np.diff(q) < 0)
+    # strictly falling, except where two lengths are a rounding step apart (equal flux)
+    assert np.all(np.diff(q) <= 0)
+    apart = np.diff(lengths) > 1e-12 * lengths[1:]
+    assert np.all(np.diff(q)[apart] < 0)
 
 
 def test_sweep_broadcasts_materials_by_thickness_by_delta_t():

@@ -2,6 +2,8 @@
 
 Oracles: the ``chemicals`` package (CRC enthalpies of fusion, the Clapeyron
 sublimation-pressure equation), CoolProp (water and CO2 equations of state),
+the IAPWS R10-06 Gibbs function of ice Ih (evaluated here, checked against the
+release's own check values),
 scipy.constants (CODATA 2018). Values marked demo or common-practice are only
 checked for plausibility (stated as such).
 """
@@ -13,9 +15,15 @@ import math
 import chemicals
 import pytest
 from CoolProp.CoolProp import PropsSI
-from scipy import constants, optimize
+from scipy import constants, integrate, optimize
 
-from workbench.coolants import COOLANT_COLUMNS, PHASE_CHANGES, coolant, load_coolants
+from workbench.coolants import (
+    COOLANT_COLUMNS,
+    PHASE_CHANGES,
+    coolant,
+    load_coolants,
+    specific_heats_for,
+)
 
 WATER = "7732-18-5"
 CO2 = "124-38-9"
@@ -148,3 +156,62 @@ def test_unknown_coolant_lists_valid_ids():
 
 def test_columns_constant():
     assert COOLANT_COLUMNS[0] == "id" and "latent_heat_source" in COOLANT_COLUMNS
+
+
+# --- specific heats of water ice and liquid water (defaults of the two-node model) ----------
+# IAPWS R10-06(2009), Revised Release on the Equation of State 2006 for H2O Ice Ih
+# (Feistel & Wagner, J. Phys. Chem. Ref. Data 35 (2006) 1021): Gibbs function
+# g(T, p); c_p = -T d2g/dT2 needs only the complex terms r1, t1, r2(p), t2
+# (release Eq. (1) and Table 2). The coefficients were typed from memory; the
+# first assertion re-derives the release's own check values of c_p (Table 6,
+# from memory: 2096.78431622 J/(kg·K) at the triple point, 2096.71391024 at
+# 273.152519 K and 101.325 kPa, 866.333195517 at 100 K and 100 MPa), so a
+# mistyped coefficient fails here rather than passing silently.
+_TT, _PT, _P0 = 273.16, 611.657, 101325.0
+_T1 = 0.368017112855051e-1 + 0.510878114959572e-1j
+_R1 = 0.447050716285388e2 + 0.656876847463481e2j
+_T2 = 0.337315741065416 + 0.335449415919309j
+_R2 = (
+    -0.725974574329220e2 - 0.781008427112870e2j,
+    -0.557107698030123e-4 + 0.464578634580806e-4j,
+    0.234801409215913e-10 - 0.285651142904972e-10j,
+)
+
+
+def _ice_cp(t, p=101325.0):
+    tau, pi = t / _TT, (p - _P0) / _PT
+    r2 = sum(c * pi**k for k, c in enumerate(_R2))
+    s = sum(r * (1 / (tk - tau) + 1 / (tk + tau) - 2 / tk) for r, tk in ((_R1, _T1), (r2, _T2)))
+    return -t * s.real / _TT
+
+
+def test_ice_specific_heat_against_iapws_r10_06(table):
+    assert _ice_cp(273.16, 611.657) == pytest.approx(2096.78431622, rel=1e-9)
+    assert _ice_cp(273.152519, 101325.0) == pytest.approx(2096.71391024, rel=1e-9)
+    assert _ice_cp(100.0, 1e8) == pytest.approx(866.333195517, rel=1e-9)
+    # the table's value: the mean over -20 .. 0 °C at 1 atm (frozen packs from a freezer)
+    mean = integrate.quad(_ice_cp, 253.15, 273.15)[0] / 20.0
+    assert table.loc["water_ice", "specific_heat_solid"] == pytest.approx(mean, rel=1e-3)
+    assert table.loc["water_ice", "specific_heat_solid_source_key"] == "iapws-r10-06"
+
+
+def test_liquid_water_mean_specific_heat_against_coolprop_iapws95(table):
+    # CoolProp (IAPWS-95 for water): mean c_p over 0.01 .. 30 °C at 1 atm as the
+    # enthalpy difference over the temperature difference
+    h = lambda t: PropsSI("H", "T", t, "P", 101325.0, "Water")  # noqa: E731
+    mean = (h(303.15) - h(273.16)) / (303.15 - 273.16)
+    assert table.loc["water_ice", "specific_heat_liquid"] == pytest.approx(mean, rel=1e-3)
+    assert table.loc["water_ice", "specific_heat_liquid_source_key"] == "iapws-95"
+
+
+def test_specific_heats_for_picks_the_matching_row(table):
+    for cid in table.index:
+        row = table.loc[cid]
+        cs, cl = specific_heats_for(row["t_phase_change"], row["latent_heat"])
+        assert (float(cs), float(cl)) == (row["specific_heat_solid"], row["specific_heat_liquid"])
+    cs, cl = specific_heats_for([273.15, 194.65], [333550.0, 571000.0])
+    assert cs.tolist() == [table.loc["water_ice", "specific_heat_solid"], 0.0]
+    with pytest.raises(ValueError, match="latent_heat"):
+        specific_heats_for(273.15, -1.0)
+    with pytest.raises(TypeError, match="coolant_id"):
+        coolant(None)

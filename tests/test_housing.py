@@ -253,7 +253,7 @@ def test_non_convergence_is_an_error_naming_candidates():
 
 def test_unbounded_balance_is_an_error_not_a_number():
     # 1 GW in a 100 mm cube has no physical steady state within the model's range
-    with pytest.raises(RuntimeError, match=r"no solution.*candidates \[1\]"):
+    with pytest.raises(ValueError, match=r"no solution.*candidates \[1\]"):
         solve(emissivity=0.9, power=[5.0, 1e9])
 
 
@@ -331,5 +331,5 @@ def test_root_search_keeps_a_bracket_and_converges_superlinearly():
     assert it <= 15
     root, _ = _bisect(lambda x: np.exp(x) - 50.0, np.array([0.0]), 1.0, 1e-9, 200, "test")
     assert root == pytest.approx([np.log(50.0)], abs=1e-9)
-    with pytest.raises(RuntimeError, match="no solution within"):
+    with pytest.raises(ValueError, match="no solution within"):
         _bisect(lambda x: -np.ones_like(x), np.array([0.0]), 1.0, 1e-6, 50, "test", max_rise=10.0)

@@ -132,7 +132,9 @@ def test_product_standard_limit_changes_the_verdict(materials):
 def test_emissivity_sensitivity_matches_two_independent_solves(materials, results):
     study = make(materials)
     eps = results["emissivity"].to_numpy()
-    d = 0.02
+    # the code differentiates the surface balance implicitly (no extra solve); a central
+    # difference of two independent solves converges to that derivative as O(d²)
+    d = 1e-3
     with warnings.catch_warnings():
         warnings.simplefilter("ignore", ValidityWarning)
         lo = solve_housing(
@@ -249,4 +251,127 @@ def test_touch_limits_frame(materials):
     frame = make(materials).touch_limits_frame()
     assert isinstance(frame, pd.DataFrame)
     assert frame.attrs["units"]["limit_degC"] == "°C"
-    assert len(frame) == 15
+    # one row per material class and tabulated contact duration (every class has the same ones)
+    per_class = frame.groupby("material_class")["contact_duration"].apply(frozenset)
+    assert len(per_class) == 5 and len(set(per_class)) == 1
+    assert {60.0, 600.0, 28800.0} <= set(per_class.iloc[0])
+    assert len(frame) == 5 * len(per_class.iloc[0])
+
+
+# ----------------------------------------------------------------- warm-up in the study
+def test_time_to_touch_limit_matches_the_warm_up(materials):
+    from workbench.housing import housing_warm_up
+
+    with warnings.catch_warnings():
+        warnings.simplefilter("ignore", ValidityWarning)
+        s = make(materials, power=8.0, session_duration=3600.0, content_heat_capacity=150.0)
+        r = s.results()
+    a = s._arrays()
+    caps = s.heat_capacities()
+    with warnings.catch_warnings():
+        warnings.simplefilter("ignore", ValidityWarning)
+        w = housing_warm_up(
+            s.length,
+            s.width,
+            s.height,
+            a["t"],
+            a["k"],
+            a["eps"],
+            s.power,
+            s.t_ambient,
+            caps,
+            3600.0,
+            s.mounting,
+        )
+    expect = w.time_to_limit(r["touch_limit"].to_numpy())
+    assert_allclose(r["time_to_touch_limit"].to_numpy(), expect)
+    # a candidate whose steady surface stays below its limit never reaches it
+    below = r["t_surface"] < r["touch_limit"]
+    assert np.all(np.isinf(r.loc[below, "time_to_touch_limit"]))
+    assert np.isfinite(r["time_to_touch_limit"]).any()
+    assert r.attrs["units"]["time_to_touch_limit"] == "s"
+    assert_allclose(r["t_surface_session_end"], w.t_surface[:, -1])
+
+
+def test_heat_capacity_is_shell_mass_times_specific_heat_plus_contents(materials):
+    s = make(materials, content_heat_capacity=120.0)
+    with warnings.catch_warnings():
+        warnings.simplefilter("ignore", ValidityWarning)
+        r = s.results()
+    cp = materials.loc[[c.material for c in s.candidates], "specific_heat"].to_numpy()
+    assert_allclose(r["heat_capacity"].to_numpy(), r["mass"].to_numpy() * cp + 120.0, rtol=1e-12)
+
+
+def test_warm_up_frame_long_format_with_limits_and_cautions(materials):
+    s = make(materials, session_duration=600.0)
+    f = s.warm_up_frame()
+    assert set(f["candidate"]) == set(s.names)
+    assert f["time"].max() == pytest.approx(600.0) and f["time"].min() == 0.0
+    assert (f["t_surface"] >= s.t_ambient - 1e-9).all()
+    assert set(f.attrs["time_to_touch_limit"]) == set(s.names)
+    assert any("product standard" in c for c in f.attrs["cautions"])
+    assert f.attrs["units"]["time"] == "s"
+
+
+@pytest.mark.parametrize(
+    "field, value",
+    [
+        ("session_duration", 0.0),
+        ("session_duration", 30 * 86400.0),
+        ("content_heat_capacity", -1.0),
+        ("content_heat_capacity", float("nan")),
+    ],
+)
+def test_bad_session_inputs_name_the_field(materials, field, value):
+    with pytest.raises(ValueError, match=field):
+        make(materials, **{field: value})
+
+
+@pytest.mark.parametrize(
+    "material, finish, expected",
+    [
+        ("aluminium_6063_t6_anodised", None, "metal-coated"),  # anodised row, no finish set
+        ("aluminium_6063_t6", "aluminium_anodised", "metal-coated"),  # finishes table: coated
+        ("carbon_steel", "paint", "metal-coated"),
+        ("aluminium_6063_t6", None, "metal-uncoated"),  # mill finish, untreated
+        ("aluminium_6063_t6", "aluminium_bare", "metal-uncoated"),
+        ("abs", None, "plastic"),  # "moulded, unpainted" is no coating, and a plastic anyway
+        ("pc", "plastic_metallised", "plastic"),
+    ],
+)
+def test_touch_class_follows_the_finish(materials, material, finish, expected):
+    s = make(materials, candidates=[C(material, 0.002, finish)], component=None)
+    with warnings.catch_warnings():
+        warnings.simplefilter("ignore", ValidityWarning)
+        assert s.results()["touch_class"].iloc[0] == expected
+
+
+def test_finish_text_coating_words():
+    from workbench.studies.housing import finish_text_is_coating
+
+    assert finish_text_is_coating("anodised (clear or dark)")
+    assert finish_text_is_coating("Anodized, black")
+    assert finish_text_is_coating("powder-coated")
+    assert finish_text_is_coating("painted")
+    assert not finish_text_is_coating("moulded, unpainted")
+    assert not finish_text_is_coating("mill finish, untreated")
+    assert not finish_text_is_coating(float("nan"))
+
+
+def test_scenario_round_trip_keeps_the_session_inputs(materials):
+    from workbench.scenario import study_kind
+
+    kind = study_kind("housing")
+    s = make(materials, session_duration=1500.0, content_heat_capacity=250.0)
+    inputs, _ = kind.read_back(s)
+    from workbench.units import parse
+
+    assert parse(inputs["session_duration"], "time", "session_duration") == pytest.approx(1500.0)
+    assert parse(inputs["content_heat_capacity"], "heat_capacity", "content_heat_capacity") == (
+        pytest.approx(250.0)
+    )
+    names = [i.name for i in kind.inputs]
+    assert "session_duration" in names and "content_heat_capacity" in names
+    spec = kind.input_spec("content_heat_capacity")
+    assert spec.kind == "heat_capacity" and spec.default == "100 J/K"
+    assert kind.input_spec("session_duration").default == "20 min"

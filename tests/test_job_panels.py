@@ -141,7 +141,7 @@ def test_shipper_recompute_runs_as_a_task_and_cancel_keeps_the_last_result(ship_
 
 def test_shipper_ambient_in_fahrenheit_shifts_profile(ship, ship_study):
     assert ship.set_inputs(ambient="95 °F") == {"ambient": ""}
-    times, temps = ship_study.t_ambient
+    times, temps = (np.asarray(v, float) for v in ship_study.t_ambient)
     shifted = (times, temps + (_f_to_k(95.0) - temps.max()))
     ref = dataclasses.replace(ship_study, t_ambient=shifted).hold_curve(3.0)
     name = ship_study.names[2]
@@ -185,7 +185,7 @@ def test_shipper_us_system_relabels(ship, ship_study):
     assert "[lb]" in ship.table.value and "[in]" in ship.table.value
     assert ship.f_ambient.text.value.endswith("°F")
     assert float(ship.f_ambient.text.value.split()[0]) == pytest.approx(
-        float(_k_to_f(ship_study.t_ambient[1].max())), abs=0.05)
+        float(_k_to_f(np.max(ship_study.t_ambient[1]))), abs=0.05)
     assert_allclose(np.asarray(ship.fig_hold.data[0].x, float), y_h / 25.4, rtol=1e-12)  # 1 in = 25.4 mm
     assert ship.slider.label.endswith("in")
     ship.slider.value = 0.05
@@ -268,7 +268,7 @@ def test_housing_bad_input_keeps_last_result(house):
     msg = house.set_inputs(ambient="3 kg")["ambient"]
     assert "ambient temperature" in msg and "temperature" in msg
     assert "3 kg" in house.f_ambient.message.value
-    msg = house.set_inputs(contact="1 s")["contact"]  # shorter than any tabulated contact: the study rejects it
+    msg = house.set_inputs(contact="0.1 s")["contact"]  # shorter than any tabulated contact: rejected
     assert "contact" in msg
     assert house.study is study
     for old, tr in zip(eps, house.fig_eps.data, strict=True):
@@ -311,3 +311,98 @@ def test_housing_us_system_relabels(house, house_study):
     btu_per_h = constants.Btu / constants.hour  # W
     assert house.slider.value == pytest.approx(house_study.power / btu_per_h, rel=1e-9)
     assert house.f_ambient.text.value.endswith("°F")
+
+
+# --- shipper: trace of the trip and logger profiles --------------------------------
+def test_shipper_trace_follows_the_picked_design_and_thickness(ship_study):
+    p = ShipperPanel(ship_study, coolant_mass=3.0, background=False)
+    first = p.trace
+    assert set(first["candidate"]) == {p.trace_pick.value}
+    other = [n for n in ship_study.names if n != p.trace_pick.value][0]
+    p.trace_also.value = (other,)
+    assert set(p.trace["candidate"]) == {p.trace_pick.value, other}
+    ends = [t for t in p.fig_trace.data if "end of hold" in (t.name or "")]
+    assert len(ends) == 2
+    # the panel draws the study's own trace (no physics in the widget)
+    want = ship_study.trace(p.trace_designs())
+    np.testing.assert_array_equal(p.trace["payload_temperature"], want["payload_temperature"])
+    assert "does not qualify a shipper" in p.trace_cautions.value
+
+
+def test_shipper_loads_a_logger_profile_and_reports_bad_files(ship_study, tmp_path):
+    p = ShipperPanel(ship_study, coolant_mass=3.0, background=False)
+    bad = tmp_path / "bad.csv"
+    bad.write_text("elapsed [h],temperature\n0,20\n", encoding="utf-8")
+    msg = p.load_profile(str(bad), "route")
+    assert msg.startswith(f"{bad}:1:2") and "missing unit" in p.profile_msg.value
+    assert list(p.study.profiles) == list(ship_study.profiles)  # last good result kept
+    good = tmp_path / "route.csv"
+    good.write_text("elapsed [h],temperature [°F]\n0,68\n1,86\n2,77\n", encoding="utf-8")
+    assert p.load_profile(str(good), "route") == ""
+    assert "route" in p.study.profiles and "route" in p.profile_list.value
+    assert set(p.results.by_profile["profile"]) == set(p.study.profiles)
+    assert "ambient (route)" in [t.name for t in p.fig_trace.data]
+    # 86 °F = 30 °C (NIST SP 811 (2008), Appendix B.9)
+    assert max(p.study.profiles["route"][1]) == pytest.approx(303.15)
+
+
+# ------------------------------------------------------------ housing warm-up
+@pytest.mark.filterwarnings("ignore::workbench._checks.ValidityWarning")
+def test_housing_warm_up_chart_follows_the_study(house, house_study):
+    n = len(house_study.names)
+    frame = house_study.warm_up_frame()
+    for i, name in enumerate(house_study.names):
+        tr = house.fig_warm.data[i]
+        sub = frame[frame["candidate"] == name]
+        assert tr.name == name
+        # the chart draws the session's own points (at most ~150 per line, both ends kept)
+        x = np.asarray(tr.x, float) * 60.0
+        times = sub["time"].to_numpy()
+        assert x[0] == times[0] and x[-1] == pytest.approx(times[-1]) and x.size <= 160
+        assert np.isin(np.round(x, 6), np.round(times, 6)).all()
+        assert_allclose(np.asarray(tr.y, float),
+                        np.interp(x, times, sub["t_surface"].to_numpy()) - 273.15, rtol=1e-9)
+        assert "min" in tr.hovertemplate and "°C" in tr.hovertemplate
+    limits = [t for t in house.fig_warm.data[n:] if t.name.startswith("touch limit")]
+    assert limits and all("°C" in t.name for t in limits)
+    assert "Time into the session [min]" == house.fig_warm.layout.xaxis.title.text
+    assert "Touch safety and component limits stay with" in house.fig_warm.layout.annotations[0].text
+    assert "Time to touch limit" in house.table.value and "not within session" in house.table.value
+    assert "Touch safety and component limits stay with" in house.table.value
+
+
+@pytest.mark.filterwarnings("ignore::workbench._checks.ValidityWarning")
+def test_housing_session_and_contents_fields_recompute(house, house_study):
+    fig = house.fig_warm
+    assert house.f_session.text.value == "20 min"
+    assert house.set_inputs(session="45", contents="400 J/K") == {"session": "", "contents": ""}
+    assert house.fig_warm is fig
+    assert house.study.session_duration == pytest.approx(45 * constants.minute)
+    assert house.study.content_heat_capacity == pytest.approx(400.0)
+    ref = dataclasses.replace(house_study, session_duration=2700.0, content_heat_capacity=400.0)
+    sub = ref.warm_up_frame()
+    sub = sub[sub["candidate"] == house_study.names[0]]
+    assert float(np.max(fig.data[0].x)) == pytest.approx(45.0)
+    x = np.asarray(fig.data[0].x, float) * 60.0
+    assert_allclose(np.asarray(fig.data[0].y, float),
+                    np.interp(x, sub["time"].to_numpy(), sub["t_surface"].to_numpy()) - 273.15, rtol=1e-9)
+    assert "45-min" in fig.layout.title.text
+
+
+def test_housing_bad_session_inputs_show_a_message_and_keep_the_chart(house):
+    before = [np.asarray(t.y, float).copy() for t in house.fig_warm.data[:3]]
+    study = house.study
+    out = house.set_inputs(session="-5 min", contents="3 kg")
+    assert "use-session duration" in out["session"]
+    assert "heat capacity" in out["contents"]
+    assert house.set_inputs(session="30 day")["session"]  # the study refuses a week-plus session
+    assert house.study is study
+    for old, tr in zip(before, house.fig_warm.data[:3], strict=True):
+        assert np.array_equal(old, np.asarray(tr.y, float))
+    assert "Traceback" not in house.status.value
+
+
+def test_housing_warm_up_chart_in_fahrenheit(house):
+    house.set_system("US")
+    assert "[°F]" in house.fig_warm.layout.yaxis.title.text
+    assert "°F" in house.fig_warm.data[0].hovertemplate

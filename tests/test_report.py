@@ -257,3 +257,34 @@ def test_engineering_rounding():
         "1.5e7",
         "-0.000123",
     ]
+
+
+@pytest.mark.skipif("housing" not in KINDS, reason="no housing example")
+def test_housing_report_shows_the_warm_up(evaluations, pages):
+    ev = evaluations["housing"]
+    page = pages["housing"]
+    from workbench.report import _housing_charts
+
+    figs = _housing_charts(ev)
+    warm = [f for f in figs if "use session" in (f.layout.title.text or "")]
+    assert len(warm) == 1
+    fig = warm[0]
+    study = ev.study
+    frame = study.warm_up_frame()
+    assert frame["time"].max() == pytest.approx(study.session_duration)
+    # one line per candidate, in °C over minutes, plus the touch limits in use
+    names = list(ev.results.index)
+    lines = {t.name: t for t in fig.data if t.name in names}
+    assert set(lines) == set(names)
+    first = frame[frame["candidate"] == names[0]]
+    x = np.asarray(lines[names[0]].x, float) * 60.0  # drawn points: a subset of the session's
+    np.testing.assert_allclose(np.asarray(lines[names[0]].y, float),
+                               np.interp(x, first["time"], first["t_surface"]) - 273.15)
+    assert any(str(t.name).startswith("touch limit") for t in fig.data)
+    assert "°C" in lines[names[0]].hovertemplate and "min" in lines[names[0]].hovertemplate
+    assert "product standard" in fig.layout.annotations[0].text
+    # the results table carries the time to the limit, and the caution is on the page
+    assert "Time for the mean surface to reach the touch limit [h]" in html.unescape(page)
+    assert "Touch safety and component limits stay with the applicable product standard" in page
+    assert "use session against the touch limit" in page  # the chart is drawn on the page
+    assert np.all(ev.results["time_to_touch_limit"] >= 0)

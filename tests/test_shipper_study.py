@@ -90,7 +90,8 @@ def test_conductance_from_geometry(study, results):
     a = study.payload_length + 2 * r["coolant_layer"]
     b = study.payload_width + 2 * r["coolant_layer"]
     c = study.payload_height + 2 * r["coolant_layer"]
-    g = layered_box_conductance(a, b, c, [0.04, 0.004], [0.035, 0.064], 0.13, 0.13).total
+    k = study.materials.loc[["eps_20", "corrugated_single_wall"], "conductivity"].to_numpy()
+    g = layered_box_conductance(a, b, c, [0.04, 0.004], k, 0.13, 0.13).total
     assert r["conductance"] == pytest.approx(float(g), rel=1e-9)
     # outer dims and billable mass by hand
     lo = study.payload_length + 2 * (r["coolant_layer"] + 0.044)
@@ -219,6 +220,58 @@ def test_design_run_and_figures(study, results):
 def test_bad_inputs_name_the_field(materials, kwargs, field):
     with pytest.raises(ValueError, match=field):
         ShipperStudy(_cands(), materials, **kwargs)
+
+
+@pytest.mark.parametrize(
+    ("kwargs", "pattern"),
+    [
+        ({"duration": 0.0}, r"duration: must be > 0 in s"),
+        ({"duration": float("nan")}, r"duration: must be finite in s"),
+        ({"duration": [3600.0, 7200.0]}, r"duration: expected one number \[s\]"),
+        ({"duration": True}, r"duration: expected a number in s, got a boolean"),
+        ({"safety_factor": float("inf")}, r"safety_factor: must be finite"),
+        ({"safety_factor": 20.0}, r"safety_factor: must lie in \[1, 10\] \[-\]"),
+        ({"coolant_packing_fraction": 0.0}, r"coolant_packing_fraction: must lie in \(0, 1\]"),
+        ({"coolant_packing_fraction": 1.5}, r"coolant_packing_fraction: must lie in \(0, 1\]"),
+        ({"time_step": 0.0}, r"time_step: must be > 0 in s"),
+        ({"time_step": -60.0}, r"time_step: must be > 0 in s"),
+        ({"t_payload_min": T0 + 8, "t_payload_max": T0 + 8}, r"t_payload_min, t_payload_max"),
+        ({"t_payload_min": 2.0, "t_payload_max": 8.0}, r"t_payload_min: must lie in .*kelvin"),
+        ({"t_coolant_start": "5 °C"}, r"t_coolant_start: expected a number in K, got the text"),
+        (
+            {"t_ambient": ([0.0, 3600.0, 3600.0], [300.0, 290.0, 295.0])},
+            r"t_ambient times_s: row 2 .*repeats row 1",
+        ),
+        (
+            {"t_ambient": [[0.0, 300.0], [7200.0, 290.0], [3600.0, 295.0]]},
+            r"t_ambient times_s: row 2 .*earlier than row 1",
+        ),
+        ({"rate_per_kg": -1.0}, r"rate_per_kg: must be >= 0 in currency/kg"),
+        ({"fixed_fee": float("nan")}, r"fixed_fee: must be finite in currency"),
+        ({"fixed_fee": None}, r"fixed_fee: expected a number in currency, got None"),
+        ({"thicknesses": []}, r"thicknesses: expected a list of one or more"),
+        ({"time_step": 0.1}, r"time_step: the study simulates up to 2 × duration .*MAX_STEPS"),
+        (
+            {"thicknesses": np.linspace(0.01, 0.1, 60_000), "time_step": 60.0},
+            r"thicknesses: 4 candidates × 60000 thicknesses .*MAX_CELLS",
+        ),
+        ({"t_ambient": T0 + 2.0}, r"t_ambient: never above the coolant's phase change"),
+    ],
+)
+def test_constructor_refuses_before_computing(materials, kwargs, pattern):
+    import time
+
+    t0 = time.perf_counter()
+    with pytest.raises((ValueError, TypeError), match=pattern):
+        ShipperStudy(_cands(), materials, **kwargs)
+    assert time.perf_counter() - t0 < 2.0
+
+
+def test_constructor_reads_rows_and_columns_alike(materials):
+    rows = ShipperStudy(_cands(), materials, t_ambient=[[0.0, 303.15], [3600.0, 293.15]])
+    cols = ShipperStudy(_cands(), materials, t_ambient=([0.0, 3600.0], [303.15, 293.15]))
+    assert rows.t_ambient == cols.t_ambient == ([0.0, 3600.0], [303.15, 293.15])
+    assert ShipperStudy(_cands(), materials, t_ambient=300.0).t_ambient == 300.0
 
 
 def test_candidate_needs_one_sized_layer():

@@ -7,10 +7,11 @@ loader bug cannot hide a table error. Outside references used as oracles:
   2004, argon by Lemmon & Jacobsen 2004, CO2 by Span & Wagner / Huber et al.)
   for gas conductivity, density and specific heat.
 - The ``ht`` package's material data (``ht.insulation``), which carries
-  DIN EN 12524:2000 Table 1 design values (the same values as
-  ISO 10456:2007 Table 3) and ASHRAE Handbook—Fundamentals values. The
-  curated values citing ISO 10456 were recalled from memory; these tests
-  compare them with the copy of the standard's values that ``ht`` carries.
+  DIN EN 12524:2000 design values (the table ISO 10456:2007 Table 3
+  continues) and ASHRAE Handbook—Fundamentals values. Values re-read from
+  those copies are checked cell by cell in tests/test_tables_reread.py; the
+  checks here compare rows from *other* sources (or other grades) with the
+  nearest row of the copies, with a stated tolerance.
 
 The plausibility bands are common-practice ranges (see PLAUSIBILITY_BANDS).
 """
@@ -254,29 +255,6 @@ CP = pytest.importorskip("CoolProp.CoolProp")
 FLUIDS = {"air": "Air", "argon": "Argon", "co2": "CO2"}
 
 
-@pytest.mark.parametrize("material_id", list(FLUIDS))
-def test_gas_row_against_coolprop(material_id):
-    """Table values at 10 °C, 1 atm against CoolProp's reference equations.
-
-    Air and argon cite EN 673:2011 (from memory); CO2 is interpolated from
-    Incropera 7th ed. Table A.4 (from memory). Conductivity within 2 %.
-    Density and cp within 2 %: the EN 673 densities (1.232 kg/m³ for air)
-    are about 1.2 % below the ideal-gas value at 101.325 kPa.
-    """
-    row = BY_ID[material_id]
-    t = _f(row, "conductivity_temperature")
-    fluid = FLUIDS[material_id]
-    assert _f(row, "conductivity") == pytest.approx(
-        CP.PropsSI("L", "T", t, "P", 101325.0, fluid), rel=0.02
-    )
-    assert _f(row, "density") == pytest.approx(
-        CP.PropsSI("D", "T", t, "P", 101325.0, fluid), rel=0.02
-    )
-    assert _f(row, "specific_heat") == pytest.approx(
-        CP.PropsSI("C", "T", t, "P", 101325.0, fluid), rel=0.02
-    )
-
-
 @pytest.mark.parametrize(
     "material_id, rtol",
     [
@@ -301,54 +279,13 @@ def test_gas_kt_points_against_coolprop(material_id, rtol):
 insulation = pytest.importorskip("ht.insulation")
 
 # (our id, ht key, property, relative tolerance, why the tolerance)
-# ht.insulation.building_materials = DIN EN 12524:2000 Table 1 (same values as
-# ISO 10456:2007 Table 3); ht.insulation.ASHRAE = ASHRAE Handbook—Fundamentals
-# ch. 26 Table 1 (2013 edition as cited by ht).
+# ht.insulation.building_materials = DIN EN 12524:2000 design values (table
+# number 1 from memory; the table ISO 10456:2007 Table 3 continues);
+# ht.insulation.ASHRAE = ASHRAE Handbook—Fundamentals, building and insulating
+# materials design values (2013 edition as cited by ht; ch. 26 Table 1 from memory).
+# Rows whose values were re-read from these copies are checked exactly in
+# tests/test_tables_reread.py; the rows here come from other sources or grades.
 HT_CHECKS = [
-    # --- same standard: our ISO 10456 values were recalled from memory; they
-    #     must equal the EN 12524 values ht carries (0.5 % for rounding). The
-    #     table's author had seen ht's listing while writing the table, so for
-    #     these rows the check guards against transcription and unit errors
-    #     rather than being a fully independent confirmation.
-    ("pc", "Plastics, polycarbonates", "k", 0.005, "same tabulated value"),
-    ("pc", "Plastics, polycarbonates", "rho", 0.005, "same tabulated value"),
-    ("pc", "Plastics, polycarbonates", "cp", 0.005, "same tabulated value"),
-    ("pmma", "Plastics, polymethylmethacrylate (PMMA)", "k", 0.005, "same tabulated value"),
-    ("pmma", "Plastics, polymethylmethacrylate (PMMA)", "rho", 0.005, "same tabulated value"),
-    ("pvc_rigid", "Plastics, Polyvinylchloride (PVC)", "k", 0.005, "same tabulated value"),
-    ("pvc_rigid", "Plastics, Polyvinylchloride (PVC)", "cp", 0.005, "same tabulated value"),
-    ("ptfe", "Plastics, polytetrafluoroethylene (PTFE)", "k", 0.005, "same tabulated value"),
-    ("pp", "Plastics, polypropylene", "k", 0.005, "same tabulated value"),
-    ("pp", "Plastics, polypropylene", "rho", 0.005, "same tabulated value"),
-    (
-        "hdpe",
-        "Plastics, polyethylene / polythene, high density",
-        "k",
-        0.005,
-        "same tabulated value",
-    ),
-    ("ldpe", "Plastics, polyethylene / polythene, low density", "k", 0.005, "same tabulated value"),
-    ("epoxy", "Plastics, epoxy resin", "k", 0.005, "same tabulated value"),
-    ("pa6", "Plastics, polyamide (nylon)", "k", 0.005, "same tabulated value"),
-    ("epdm", "Rubber, ethylene propylene diene monomer (EPDM)", "k", 0.005, "same tabulated value"),
-    ("silicone_rubber", "Sealant, silicone, pure", "k", 0.005, "same tabulated value"),
-    ("soda_lime_glass", "Glass, soda lime", "k", 0.005, "same tabulated value"),
-    ("soda_lime_glass", "Glass, soda lime", "rho", 0.005, "same tabulated value"),
-    ("soda_lime_glass", "Glass, soda lime", "cp", 0.005, "same tabulated value"),
-    ("porcelain", "Tiles, ceramic or porcelain", "k", 0.005, "same tabulated value"),
-    ("gypsum_board", "Gypsum, plasterboard", "k", 0.005, "same tabulated value"),
-    ("gypsum_board", "Gypsum, plasterboard", "rho", 0.005, "same tabulated value"),
-    ("softwood_500", "Timber, 500 kg/m^3", "k", 0.005, "same tabulated value"),
-    ("hardwood_700", "Timber, 700 kg/m^3", "k", 0.005, "same tabulated value"),
-    ("plywood_500", "Wood, plywood 500 kg/m^3", "k", 0.005, "same tabulated value"),
-    ("osb_650", "Wood, oriented strand board", "k", 0.005, "same tabulated value"),
-    ("osb_650", "Wood, oriented strand board", "rho", 0.005, "same tabulated value"),
-    ("particleboard_600", "Wood, particleboard, 600 kg/m^3", "k", 0.005, "same tabulated value"),
-    ("mdf_800", "Wood, fibreboard, 800 kg/m^3", "k", 0.005, "same tabulated value"),
-    ("concrete_normal_2400", "Concrete, high density", "k", 0.005, "same tabulated value"),
-    ("granite", "Stone, granite", "k", 0.005, "same tabulated value"),
-    ("cast_iron_grey", "Metals, iron, cast", "k", 0.005, "same tabulated value"),
-    ("wool_felt_120", "Floor covering, underlay, felt", "k", 0.005, "same tabulated value"),
     # --- same kind of material, different source or grade: stated reasons.
     # EN 12524 gives design values for generic metal groups; ours are specific
     # alloys or pure metals from Incropera Table A.1 / ASM (from memory).
@@ -367,7 +304,7 @@ HT_CHECKS = [
         "one alloy (6061-T6) vs all Al alloys",
     ),
     ("brass_cartridge", "Metals, brass", "k", 0.10, "70/30 cartridge brass vs generic brass"),
-    ("zinc_zamak3", "Metals, zinc", "k", 0.05, "Zamak 3 alloy vs zinc"),
+    ("zinc_znal4", "Metals, zinc", "k", 0.05, "ZnAl4 (ZP3) alloy vs zinc"),
     (
         "stainless_304",
         "Metals, stainless steel",
@@ -383,27 +320,20 @@ HT_CHECKS = [
         0.05,
         "30 % vs 25 % glass fibre",
     ),
-    # Gases: EN 12524 rounds to two significant figures.
-    ("air", "Gases, air", "k", 0.01, "EN 673 value (0.02496) vs EN 12524 rounded value (0.025)"),
+    # Gases: our values come from CoolProp (tests/test_tables_reread.py);
+    # EN 12524 rounds to two significant figures.
+    ("air", "Gases, air", "k", 0.01, "CoolProp value (0.02512) vs EN 12524 rounded value (0.025)"),
     (
         "argon",
         "Gases, argon",
         "k",
         0.02,
-        "EN 673 value (0.01684) vs EN 12524 rounded value (0.017)",
+        "CoolProp value (0.01699) vs EN 12524 rounded value (0.017)",
     ),
-    # EN 12524's CO2 value (0.014) is about 10 % below modern data; ours agrees
-    # with CoolProp within 1 % (test_gas_row_against_coolprop).
+    # EN 12524's CO2 value (0.014) is about 10 % below modern data (CoolProp, Huber et al. 2016).
     ("co2", "Gases, carbon dioxide", "k", 0.12, "EN 12524 CO2 value is low"),
-    # ASHRAE Handbook—Fundamentals ch. 26 Table 1: different density grade or mean
-    # temperature (24 °C in ASHRAE vs 10 °C here).
-    (
-        "eps_20",
-        "Expanded polystyrene, molded beads",
-        "k",
-        0.05,
-        "20 kg/m³ both; ASHRAE at 24 °C mean",
-    ),
+    # ASHRAE Handbook—Fundamentals: different density grade or mean
+    # temperature (24 °C in ASHRAE, from memory, vs 10 °C here).
     (
         "phenolic_35",
         "Phenolic foam board with facers, aged",
@@ -411,22 +341,8 @@ HT_CHECKS = [
         0.12,
         "65 kg/m³ faced board in ASHRAE vs 35 kg/m³",
     ),
-    (
-        "cellulose_45",
-        "Loose fill, Cellulosic",
-        "k",
-        0.10,
-        "Incropera Table A.3 (from memory) vs ASHRAE, 45 vs 42.5 kg/m³",
-    ),
     ("hardwood_700", "Oak", "k", 0.08, "oak at 705 kg/m³ vs generic hardwood 700 kg/m³"),
     ("softwood_500", "Hem/fir, spruce/pine/fir", "k", 0.10, "445 kg/m³ in ASHRAE vs 500 kg/m³"),
-    (
-        "concrete_light_1200",
-        "Concrete, Expanded shale, clay, or slate; expanded slags; cinders; pumice; scoria; 1280 kg/m^3",
-        "k",
-        0.20,
-        "1280 kg/m³ in ASHRAE vs 1200 kg/m³; lightweight-concrete k depends on aggregate",
-    ),
 ]
 
 

@@ -33,13 +33,43 @@ ISO_13732_1_TABLE_2 = {
 }
 
 
-def test_shipped_defaults_equal_iso_13732_1_table_2():
+# ISO 13732-1:2006, short-contact burn-threshold bands (its figures for uncoated metal,
+# ceramics/glass/stone, plastics and wood), read as the lower edge of each band at 1 s and
+# 10 s (recalled from memory, not re-read) [°C]; coated metals take the uncoated values.
+ISO_13732_1_SHORT = {
+    ("metal-uncoated", 1): 65.0, ("metal-uncoated", 10): 55.0,
+    ("metal-coated", 1): 65.0, ("metal-coated", 10): 55.0,
+    ("ceramic-glass-stone", 1): 80.0, ("ceramic-glass-stone", 10): 66.0,
+    ("plastic", 1): 85.0, ("plastic", 10): 71.0,
+    ("wood", 1): 110.0, ("wood", 10): 89.0,
+}
+
+
+def test_shipped_defaults_equal_iso_13732_1_table_2_and_short_contact_bands():
     lim = load_touch_limits()
     shipped = {(r.material_class, int(r.contact_duration)): r.limit - 273.15 for r in lim.rows}
-    assert set(shipped) == set(ISO_13732_1_TABLE_2)
-    for key, value in ISO_13732_1_TABLE_2.items():
+    expected = {**ISO_13732_1_TABLE_2, **ISO_13732_1_SHORT}
+    assert set(shipped) == set(expected)
+    for key, value in expected.items():
         assert shipped[key] == pytest.approx(value, abs=1e-9), key
-    assert all(r.source == "iso13732-1-2006-t2-mem" for r in lim.rows)
+    sources = {(r.material_class, int(r.contact_duration)): r.source for r in lim.rows}
+    assert all(sources[k] == "iso13732-1-2006-t2-mem" for k in ISO_13732_1_TABLE_2)
+    assert all(sources[k] == "iso13732-1-2006-fig-mem" for k in ISO_13732_1_SHORT)
+
+
+def test_short_contacts_interpolate_in_log_time_and_fall_with_duration():
+    # between 1 s and 10 s the standard's threshold curves are read on a log time axis
+    lim = load_touch_limits()
+    for cls in MATERIAL_CLASSES:
+        at_1, at_10 = lim.limit(cls, 1.0), lim.limit(cls, 10.0)
+        mid = lim.limit(cls, np.sqrt(10.0))
+        assert mid == pytest.approx(0.5 * (at_1 + at_10), abs=1e-9)
+        durations = [1.0, 2.0, 5.0, 10.0, 30.0, 60.0, 300.0, 600.0, 3600.0, 8 * 3600.0]
+        limits = [touch_limit(cls, d) for d in durations]
+        assert all(b <= a for a, b in zip(limits, limits[1:], strict=False)), cls
+    # a tap on a metal surface tolerates more than a grab, which tolerates more than 1 min
+    assert touch_limit("metal-uncoated", 1.0) > touch_limit("metal-uncoated", 10.0) > \
+        touch_limit("metal-uncoated", 60.0)
 
 
 def test_between_durations_the_longer_lower_limit_applies():
@@ -53,9 +83,12 @@ def test_between_durations_the_longer_lower_limit_applies():
     assert touch_limit("ceramic-glass-stone", 60.0) == pytest.approx(56.0 + 273.15)
 
 
-def test_short_contact_is_not_extrapolated():
+def test_contact_outside_1_s_to_8_h_is_refused():
+    for d in (0.5, 9 * 3600.0):
+        with pytest.raises(ValueError, match="contact_duration.*1 s to 8 h"):
+            touch_limit("metal-uncoated", d)
     with pytest.raises(ValueError, match="contact_duration"):
-        load_touch_limits().limit("metal-uncoated", 1.0)
+        load_touch_limits().limit("metal-uncoated", 0.5)  # shorter than any tabulated row
 
 
 def test_unknown_class_lists_valid_names():

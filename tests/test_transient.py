@@ -18,6 +18,7 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
+from workbench import transient
 from workbench._checks import Cancelled
 from workbench.geometry import box_conductance
 from workbench.transient import (
@@ -444,3 +445,58 @@ def test_dry_ice_keeps_a_frozen_payload_until_spent():
     assert warm.time_coolant_spent < sim.time_coolant_spent
     assert sim.time_coolant_spent < sim.time_out_of_range < math.inf
     assert PAYLOAD_RANGES["2-8 °C (refrigerated)"] == (T0 + 2, T0 + 8)
+
+
+# --- the cumulative-energy scan of hold_time (closed-form piecewise, by hand) -------
+# Energy balance of a melting coolant behind a conductance UA (Bergman, Lavine,
+# Incropera, DeWitt, Fundamentals of Heat and Mass Transfer, 7th ed., 2011, §1.3.1):
+# m L = UA ∫ (T_a − T_pc) dt while it melts; no refreezing in these profiles.
+def test_scan_three_steps_by_hand():
+    # 0-2 h at +25 K, 2-5 h at +5 K, then +15 K. UA = 0.6 W/K, m L = 2 kg × 200 kJ/kg.
+    # melted by 2 h: 0.6·25·7200 = 108 000 J; by 5 h: + 0.6·5·10 800 = 32 400 J (140 400 J);
+    # the remaining 259 600 J at 0.6·15 = 9 W take 28 844.4 s: 18 000 + 28 844.4 s
+    prof = ([0.0, 7200.0, 18000.0], [298.15, 278.15, 288.15])
+    expected = 18000.0 + (400000.0 - 108000.0 - 32400.0) / 9.0
+    assert hold_time(0.6, prof, 2.0, 200e3, 273.15) == pytest.approx(expected, rel=1e-12)
+
+
+def test_scan_spent_inside_a_finite_segment_by_hand():
+    # all spent within the first 10 h at +30 K: t = m L / (UA ΔT) = 1·333 550 / (1·30) s
+    prof = ([0.0, 36000.0], [303.15, 273.15 - 10])
+    assert hold_time(1.0, prof, 1.0, 333550.0, 273.15) == pytest.approx(333550.0 / 30, rel=1e-12)
+
+
+def test_scan_payload_limit_after_spent_by_hand():
+    # spent at t_s = m L/(UA ΔT); then the lumped node warms from T_pc towards T_a:
+    # t = t_s + (C/UA) ln((T_a − T_pc)/(T_a − T_max)) (Incropera 7th ed., §5.3, lumped capacitance)
+    ua, m, lat, c = 0.5, 1.0, 200e3, 2.0e4
+    prof = ([0.0, 1e5], [303.15, 303.15])
+    t_s = m * lat / (ua * 25.0)
+    expected = t_s + c / ua * math.log(25.0 / (303.15 - 281.15))
+    got = hold_time(ua, prof, m, lat, 278.15, c, t_payload_max=281.15)
+    assert got == pytest.approx(expected, rel=1e-12)
+
+
+def test_scan_equals_segment_solution_with_refreezing():
+    # The scan hands refreezing variants to the segment-by-segment solution; both
+    # must agree with that solution run from the start on random profiles.
+    rng = np.random.default_rng(3)
+    for _ in range(40):
+        n_seg = int(rng.integers(1, 25))
+        times = np.concatenate([[0.0], np.cumsum(rng.uniform(600, 20000, n_seg - 1))])
+        temps = 273.15 + rng.uniform(-15, 35, n_seg)
+        n = 30
+        ua, m = rng.uniform(0.05, 2, n), rng.uniform(0.1, 5, n)
+        tpc = rng.choice([273.15, 278.15], n)
+        cap_c = rng.choice([0.0, 1e3, 2e4], n)
+        ts = tpc + rng.choice([0.0, -3.0, 2.0], n)
+        tmax = np.full(n, 281.15)
+        for want in (False, True):
+            e0, en, tt, reg, tsp, tov = transient._start_state(m * 3e5, tpc, cap_c, ts, tmax)
+            with np.errstate(all="ignore"):
+                ref, _ = transient._hold_segments(
+                    ua, times, temps, m * 3e5, en, tt, reg, tsp, tov, cap_c / ua, tpc, tmax, cap_c, want
+                )
+            kw = {"t_payload_max": tmax} if want else {}
+            got = hold_time(ua, (times, temps), m, 3e5, tpc, cap_c, ts, **kw)
+            np.testing.assert_allclose(got, ref, rtol=1e-9, atol=1e-6)

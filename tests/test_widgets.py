@@ -127,7 +127,7 @@ def test_inputs_accept_units(wb):
     [
         ("area", "25 kg", ["area", "m²"]),
         ("max_thickness", "thick", ["max thickness", "mm"]),
-        ("max_thickness", "-5 mm", ["max_thickness", "m"]),
+        ("max_thickness", "-5 mm", ["max thickness", "> 0 m"]),
         ("t_inside", "-300 °C", ["inside temperature", "absolute zero"]),
         ("budget", "5 W", ["heat budget", "W/m²"]),
         ("area", "", ["area", "no value"]),
@@ -584,3 +584,95 @@ def test_plot_view_patches_rebuild_the_figure_on_the_client():
     spec = figure_spec(fig)
     assert state["data"] == spec["data"] and state["layout"] == spec["layout"]
     assert not view.push() and state["revision"] == view.revision == 4
+
+
+# ---------------------------------------------------------------------------
+# The meeting's decision form and "Compare with…" (workbench.widgets.decision)
+# ---------------------------------------------------------------------------
+EXAMPLE_WALL = Path(__file__).resolve().parents[1] / "examples" / "wall.toml"
+
+
+def _opened(path) -> Workbench:
+    w = Workbench(autosave_delay=None)
+    w.scenario_bar.path.value = str(path)
+    w.scenario_bar.open()
+    return w
+
+
+def test_decision_form_reopens_from_the_file_and_saves_back(tmp_path):
+    import datetime
+
+    from workbench.report import evaluate, render_html
+    from workbench.scenario import load_scenario
+    from workbench.widgets.decision import decision_fields
+
+    w = _opened(EXAMPLE_WALL)
+    form = w.decision_form
+    # the demo file's [decision] table fills the form, date as recorded
+    assert form.chosen.value == "steel/PIR/steel panel"
+    assert form.decided_by.value == "demo review team"
+    assert form.values()["date"] == "2026-12-01"
+    assert list(form.chosen.options)[1:] == w.study.names
+    # the meeting changes its mind: the date becomes today's (ISO 8601), the charts mark it
+    form.chosen.value = "pir_32"
+    form.rationale.value = "Demo: thinnest of the cheap boards."
+    form.attendees.value = "Ada,  Bo, Chen"
+    assert form.values()["date"] == datetime.date.today().isoformat()
+    assert w.study.names[w._chosen] == "pir_32"
+    assert form.message.value == ""
+    w.scenario_bar.path.value = str(tmp_path / "after_review.toml")
+    w.scenario_bar.save()
+    saved = load_scenario(tmp_path / "after_review.toml")
+    f = decision_fields(saved.decision)
+    assert f == {"chosen": "pir_32", "rationale": "Demo: thinnest of the cheap boards.",
+                 "decided_by": "demo review team", "attendees": "Ada, Bo, Chen",
+                 "date": datetime.date.today().isoformat()}
+    # the file's criteria and constraints survive the round trip through the workbench
+    demo = load_scenario(EXAMPLE_WALL)
+    assert saved.criteria == demo.criteria and saved.constraints == demo.constraints
+    page = render_html(evaluate(saved))
+    assert "pir_32" in page and "thinnest of the cheap boards" in page
+    again = _opened(tmp_path / "after_review.toml")
+    assert again.decision_form.values() == form.values()
+
+
+def test_decision_form_drops_a_candidate_that_is_gone():
+    w = Workbench(autosave_delay=None)
+    form = w.decision_form
+    form.chosen.value = "xps_35"
+    assert w.current_scenario().decision.chosen == "xps_35"
+    w.picker.set_chosen([n for n in w.study.names if n != "xps_35"], notify=True)
+    assert "xps_35" not in w.study.names
+    assert not form.decided and "no longer a candidate" in form.message.value
+    # undecided: the scenario keeps the highlighted candidate only, without the meeting's fields
+    assert w.current_scenario().decision.rationale == ""
+
+
+def test_compare_with_an_earlier_scenario_file(tmp_path):
+    w = _opened(EXAMPLE_WALL)
+    box = w.compare_box
+    box.path.value = str(EXAMPLE_WALL)
+    box.compare()
+    assert box.diff.same and "No differences" in box.message.value and box.table.value == ""
+    assert w.set_inputs(budget="6 W/m²") == {"budget": ""}
+    w.decision_form.chosen.value = "eps_20"
+    box.button.click()
+    frame = box.diff.to_frame()
+    assert "budget: 8 W/m² → 6 W/m²" in list(frame["change"])
+    assert "decision changed: steel/PIR/steel panel → eps_20" in list(frame["change"])
+    assert box.table.value.count("<tr") == len(frame) + 1  # header row + one per change
+    assert f"{len(frame)} differences" in box.message.value
+
+
+def test_compare_with_refuses_missing_and_broken_files_with_a_message(tmp_path):
+    w = Workbench(autosave_delay=None)
+    box = w.compare_box
+    broken = tmp_path / "broken.toml"
+    broken.write_text(EXAMPLE_WALL.read_text("utf-8").replace('area = "40 m²"', 'area = "40 kg"'), "utf-8")
+    line = next(i for i, t in enumerate(broken.read_text("utf-8").splitlines(), 1) if t.startswith("area ="))
+    for path, words in (("", "enter the name"), (tmp_path / "none.toml", "no such file"),
+                        (broken, f"broken.toml:{line}:")):
+        box.path.value = str(path)
+        box.button.click()
+        assert 'class="hw-msg"' in box.message.value and words in box.message.value, box.message.value
+        assert "Traceback" not in box.message.value and box.table.value == ""

@@ -39,7 +39,14 @@ from workbench.geometry import (
     layered_box_conductance,
     vacuum_panel_effective_conductivity,
 )
-from workbench.housing import HousingSolution, hot_spot, solve_housing
+from workbench.housing import (
+    HousingSolution,
+    hot_spot,
+    housing_heat_capacity,
+    housing_warm_up,
+    solve_housing,
+)
+from workbench.logger import load_ambient_profile
 from workbench.materials import (
     FAMILIES,
     MaterialsFileError,
@@ -123,6 +130,8 @@ __all__ = [
     "HousingSolution",
     "hot_spot",
     "solve_housing",
+    "housing_warm_up",
+    "housing_heat_capacity",
     "spreading_length",
     "spreading_resistance",
     "wall_biot_number",
@@ -152,6 +161,7 @@ __all__ = [
     "stack_front",
     "MonteCarloResult",
     "monte_carlo",
+    "load_ambient_profile",
     "FAMILIES",
     "MaterialsFileError",
     "check_materials_file",

@@ -30,14 +30,17 @@ from scipy import constants
 
 from workbench._checks import (
     ValidityWarning,
+    absolute_temperature,
     broadcast,
     finite,
+    finite_result,
     in_range,
     nonnegative,
     positive,
+    scalar,
     scalar_or_array,
 )
-from workbench.air_properties import air_properties
+from workbench.air_properties import _air_properties
 from workbench.conduction import ArrayLike
 from workbench.surfaces import DIRECTIONS, _choice
 
@@ -157,8 +160,8 @@ def parallel_plate_radiation_coefficient(
     4.213
     """
     e1, e2 = _emissivities(emissivity_1, emissivity_2)
-    t1 = positive("t_1", t_1, "K")
-    t2 = positive("t_2", t_2, "K")
+    t1 = absolute_temperature("t_1", t_1)
+    t2 = absolute_temperature("t_2", t_2)
     broadcast(emissivity_1=e1, emissivity_2=e2, t_1=t1, t_2=t2)
     return scalar_or_array(_effective(e1, e2) * _SIGMA * (t1 * t1 + t2 * t2) * (t1 + t2))
 
@@ -166,11 +169,12 @@ def parallel_plate_radiation_coefficient(
 def _common(width, emissivity_1, emissivity_2, t_mean, delta_t):
     d = positive("width", width, "m")
     e1, e2 = _emissivities(emissivity_1, emissivity_2)
-    tm = positive("t_mean", t_mean, "K")
+    tm = absolute_temperature("t_mean", t_mean)
     dt = np.abs(finite("delta_t", delta_t, "K"))
+    out = broadcast(width=d, emissivity_1=e1, emissivity_2=e2, t_mean=tm, delta_t=dt)
     if np.any(dt >= 2 * tm):
         raise ValueError("delta_t: must be smaller than 2·t_mean in K (face temperatures > 0 K)")
-    return broadcast(width=d, emissivity_1=e1, emissivity_2=e2, t_mean=tm, delta_t=dt)
+    return out
 
 
 def air_layer_resistance(
@@ -251,7 +255,10 @@ def air_layer_resistance(
         ha = np.where(small, _ISO_HA_SMALL_DT[direction], _ISO_HA_LARGE_DT[direction] * np.cbrt(dt))
     ha = np.maximum(ha, 0.025 / d)
     hr = _effective(e1, e2) * 4.0 * _SIGMA * tm**3
-    return scalar_or_array(1.0 / (ha + hr))
+    return finite_result(
+        "air_layer_resistance", scalar_or_array(1.0 / (ha + hr)),
+        "width", "emissivity_1", "emissivity_2", "t_mean", "delta_t",
+    )
 
 
 def nusselt_horizontal_layer(rayleigh: ArrayLike) -> float | np.ndarray:
@@ -405,20 +412,22 @@ def nusselt_vertical_cavity(rayleigh: ArrayLike, aspect_ratio: ArrayLike) -> flo
 def _nu_vertical(ra: np.ndarray, a: np.ndarray) -> np.ndarray:
     nu1 = 0.0605 * np.cbrt(ra)
     safe = np.where(ra > 0, ra, 1.0)
-    inner = np.where(ra > 0, 0.104 * safe**0.293 / (1.0 + (6310.0 / safe) ** 1.36), 0.0)
+    with np.errstate(over="ignore"):  # (6310/Ra)^1.36 -> inf for a tiny Ra: the term -> 0
+        inner = np.where(ra > 0, 0.104 * safe**0.293 / (1.0 + (6310.0 / safe) ** 1.36), 0.0)
     nu2 = np.cbrt(1.0 + inner**3)
     nu3 = 0.242 * (ra / a) ** 0.272
     return np.maximum(np.maximum(nu1, nu2), nu3)
 
 
 def _gap_rayleigh(props, dt, d):
-    return (
-        _G
-        * props.expansion_coefficient
-        * dt
-        * d**3
-        / (props.kinematic_viscosity * props.diffusivity)
-    )
+    with np.errstate(over="ignore"):
+        ra = _G * props.expansion_coefficient * dt * d**3 / (props.kinematic_viscosity * props.diffusivity)
+    if not np.all(np.isfinite(ra)):
+        raise ValueError(
+            "width: the Rayleigh number of the gap overflows (width in m, delta_t in K); "
+            "no enclosure correlation covers it"
+        )
+    return ra
 
 
 def _nusselt(direction: str, ra, d, height):
@@ -501,7 +510,7 @@ def air_layer_resistance_detailed(
     h = _height(direction, height)
     if h is not None:
         d, h = broadcast(width=d, height=h)
-    props = air_properties(tm)
+    props = _air_properties(tm, name="t_mean")
     ra = _gap_rayleigh(props, dt, d)
     if tilt is not None:
         if direction != "up":
@@ -511,7 +520,11 @@ def air_layer_resistance_detailed(
         nu = _nusselt(direction, ra, d, h)
     t1, t2 = tm + 0.5 * dt, tm - 0.5 * dt
     hr = _effective(e1, e2) * _SIGMA * (t1 * t1 + t2 * t2) * (t1 + t2)
-    return scalar_or_array(1.0 / (nu * props.conductivity / d + hr))
+    return finite_result(
+        "air_layer_resistance_detailed",
+        scalar_or_array(1.0 / (nu * props.conductivity / d + hr)),
+        "width", "emissivity_1", "emissivity_2", "t_mean", "delta_t", "height", "tilt",
+    )
 
 
 def gap_equivalent_conductivity(
@@ -572,7 +585,11 @@ def gap_equivalent_conductivity(
         r = air_layer_resistance_detailed(
             width, direction, emissivity_1, emissivity_2, t_mean, delta_t, height
         )
-    return scalar_or_array(np.asarray(width, dtype=float) / np.asarray(r))
+    return finite_result(
+        "gap_equivalent_conductivity",
+        scalar_or_array(positive("width", width, "m") / np.asarray(r)),
+        "width", "t_mean", "delta_t",
+    )
 
 
 def convection_onset_width(
@@ -631,20 +648,29 @@ def convection_onset_width(
     """
     _choice("direction", direction, DIRECTIONS)
     dt = positive("delta_t", np.abs(finite("delta_t", delta_t, "K")), "K")
-    tm = positive("t_mean", t_mean, "K")
-    eps = float(positive("nusselt_excess", nusselt_excess, "-"))
-    dt, tm = broadcast(delta_t=dt, t_mean=tm)
+    tm = absolute_temperature("t_mean", t_mean)
+    eps = float(positive("nusselt_excess", scalar("nusselt_excess", nusselt_excess, "-"), "-"))
+    h = None if height is None else positive("height", height, "m")
+    if h is None:
+        dt, tm = broadcast(delta_t=dt, t_mean=tm)
+    else:
+        dt, tm, h = broadcast(delta_t=dt, t_mean=tm, height=h)
     if direction == "down":
         return scalar_or_array(np.full(dt.shape, np.inf))
-    props = air_properties(tm)
+    if np.any(dt >= 2 * tm):
+        raise ValueError("delta_t: must be smaller than 2·t_mean in K (face temperatures > 0 K)")
+    props = _air_properties(tm, name="t_mean")
     g_ratio = (
         _G * props.expansion_coefficient * dt / (props.kinematic_viscosity * props.diffusivity)
     )
     if direction == "up":
-        return scalar_or_array(np.cbrt(_RA_CRITICAL / g_ratio))
-    h = None if height is None else positive("height", height, "m")
-    lo = np.full(dt.shape, np.log(1e-5))
-    hi = np.full(dt.shape, np.log(10.0))
+        return finite_result(
+            "convection_onset_width", scalar_or_array(np.cbrt(_RA_CRITICAL / g_ratio)),
+            "delta_t", "t_mean",
+        )
+    log_lo, log_hi = np.log(1e-5), np.log(10.0)
+    lo = np.full(dt.shape, log_lo)
+    hi = np.full(dt.shape, log_hi)
     for _ in range(80):
         mid = 0.5 * (lo + hi)
         d = np.exp(mid)
@@ -654,6 +680,12 @@ def convection_onset_width(
         above = nu > 1.0 + eps
         hi = np.where(above, mid, hi)
         lo = np.where(above, lo, mid)
+    if np.any(hi >= log_hi - 1e-9) or np.any(lo <= log_lo + 1e-9):
+        raise ValueError(
+            "delta_t, t_mean, height, nusselt_excess: the onset width lies outside the "
+            "0.01 mm – 10 m searched "
+            "(delta_t in K, t_mean in K, height in m); check the magnitudes"
+        )
     return scalar_or_array(np.exp(0.5 * (lo + hi)))
 
 
@@ -774,18 +806,29 @@ class AirLayer:
     name: str = "air layer"
 
     def __post_init__(self):
-        positive("thickness", self.thickness, "m")
+        positive("thickness", scalar("thickness", self.thickness, "m"), "m")
         _choice("direction", self.direction, DIRECTIONS)
         _choice("method", self.method, METHODS)
-        _emissivities(self.emissivity_1, self.emissivity_2)
+        _emissivities(
+            scalar("emissivity_1", self.emissivity_1, "-"),
+            scalar("emissivity_2", self.emissivity_2, "-"),
+        )
+        if self.height is not None:
+            positive("height", scalar("height", self.height, "m"), "m")
         if self.method == "detailed":
             _height(self.direction, self.height)
 
     def resistance(self, t_a, t_b):
         """Resistance between the face temperatures ``t_a`` (first) and ``t_b``. [m²·K/W]"""
-        ta = positive("t_a", t_a, "K")
-        tb = positive("t_b", t_b, "K")
+        ta = absolute_temperature("t_a", t_a)
+        tb = absolute_temperature("t_b", t_b)
         ta, tb = broadcast(t_a=ta, t_b=tb)
+        try:
+            return self._resistance(ta, tb)
+        except ValueError as exc:
+            raise ValueError(f"t_a, t_b (face temperatures, K): {exc}") from None
+
+    def _resistance(self, ta, tb):
         tm = 0.5 * (ta + tb)
         dt = np.abs(ta - tb)
         out = np.empty(tm.shape)

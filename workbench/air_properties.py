@@ -22,6 +22,12 @@ The test suite checks each fit against CoolProp (``PropsSI(..., 'Air')``) over
 150–500 K: density within 0.7 %, specific heat within 0.3 %, viscosity within
 1.5 %, conductivity within 3.5 % (the largest gap is at 150 K), Prandtl
 number within 3.5 %.
+
+Domain: outside 150–500 K a :class:`~workbench._checks.ValidityWarning` is
+issued (extrapolation); outside :data:`AIR_TEMPERATURE_LIMITS` (85–1000 K) a
+``ValueError``: below about 82 K air condenses at 1 atm (CoolProp's dew point
+of air is 81.7 K), and above 1000 K the specific-heat cubic departs from the
+tabulated values (5.6 % high at 1000 K against CoolProp, growing fast beyond).
 """
 
 from __future__ import annotations
@@ -32,11 +38,19 @@ from dataclasses import dataclass
 import numpy as np
 from scipy import constants
 
-from workbench._checks import ValidityWarning, positive, scalar_or_array
+from workbench._checks import (
+    ValidityWarning,
+    absolute_temperature,
+    broadcast_shape,
+    finite_result,
+    positive,
+    scalar_or_array,
+)
 from workbench.conduction import ArrayLike
 
 __all__ = [
     "AIR_TEMPERATURE_RANGE",
+    "AIR_TEMPERATURE_LIMITS",
     "AIR_MOLAR_MASS",
     "AirProperties",
     "air_properties",
@@ -49,6 +63,9 @@ __all__ = [
 #: Temperature range over which the fits are stated and tested. [K]
 AIR_TEMPERATURE_RANGE: tuple[float, float] = (150.0, 500.0)
 
+#: Hard limits of the fits: a ``ValueError`` outside (see the module notes). [K]
+AIR_TEMPERATURE_LIMITS: tuple[float, float] = (85.0, 1000.0)
+
 #: Molar mass of dry air (U.S. Standard Atmosphere 1976). [kg/mol]
 AIR_MOLAR_MASS: float = 28.9644e-3
 
@@ -59,7 +76,14 @@ _CP_COEFFS = (-0.121212121, 4.42424242, 3.37662338, 1006.44372)
 
 
 def _temperature(t, name: str = "t") -> np.ndarray:
-    tt = positive(name, t, "K")
+    tt = absolute_temperature(name, t)
+    lo_hard, hi_hard = AIR_TEMPERATURE_LIMITS
+    if np.any(tt < lo_hard) or np.any(tt > hi_hard):
+        raise ValueError(
+            f"{name}: the dry-air property fits hold for {lo_hard:g}–{hi_hard:g} K "
+            f"(got {tt.min():.4g}–{tt.max():.4g} K); below, air condenses at 1 atm, above, "
+            "the fits depart from the tables"
+        )
     lo, hi = AIR_TEMPERATURE_RANGE
     if np.any(tt < lo) or np.any(tt > hi):
         warnings.warn(
@@ -214,7 +238,8 @@ def air_density(t: ArrayLike, pressure: ArrayLike = _STANDARD_PRESSURE) -> float
     """
     tt = _temperature(t)
     p = positive("pressure", pressure, "Pa")
-    return scalar_or_array(_rho(tt, p))
+    broadcast_shape(t=tt, pressure=p)
+    return finite_result("air_density", scalar_or_array(_rho(tt, p)), "t", "pressure")
 
 
 @dataclass(frozen=True)
@@ -303,10 +328,22 @@ def air_properties(t: ArrayLike, pressure: ArrayLike = _STANDARD_PRESSURE) -> Ai
     >>> round(float(p.prandtl), 3), round(float(p.kinematic_viscosity) * 1e5, 3)
     (0.708, 1.569)
     """
-    tt = _temperature(t)
+    return _air_properties(t, pressure, "t")
+
+
+def _air_properties(t, pressure=_STANDARD_PRESSURE, name: str = "t") -> AirProperties:
+    """:func:`air_properties` with the temperature argument called ``name`` in messages."""
+    tt = _temperature(t, name)
     p = positive("pressure", pressure, "Pa")
     try:
         np.broadcast_shapes(tt.shape, p.shape)
     except ValueError:
         raise ValueError(f"shapes do not broadcast: t {tt.shape}, pressure {p.shape}") from None
-    return _props(tt, p)
+    props = _props(tt, p)
+    finite_result(
+        "air_properties",
+        (props.density, props.kinematic_viscosity, props.diffusivity),
+        "t",
+        "pressure",
+    )
+    return props

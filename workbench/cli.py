@@ -2,17 +2,32 @@
 
 Commands::
 
-    heatpath report SCENARIO -o report.html [--json OUT.json] [--csv OUT.csv] [--force]
+    heatpath report SCENARIO -o report.html [--json OUT.json] [--csv OUT.csv] [--since OLD] [--force]
     heatpath rank SCENARIO [--format table|csv|json] [-o OUT]
+    heatpath diff OLD NEW [--tolerance 1%] [--format text|json]
     heatpath materials list [--family F] [--file USER.csv] [--units SI|US]
     heatpath materials show ID [--file USER.csv] [--units SI|US]
     heatpath materials check FILE
     heatpath scenario new KIND [-o FILE] [--force]
     heatpath scenario check FILE
 
-Exit codes: 0 ok, 2 bad input (a message on stderr naming the file, key and
-line), 1 internal error. Tracebacks only with ``--debug``. Progress goes to
-stderr (``--quiet`` silences it), results to stdout or the ``-o`` file.
+Exit codes: 0 ok, 2 bad input (a message on stderr naming the file, line,
+column and key), 1 internal error. Tracebacks only with ``--debug``. Progress
+goes to stderr (``--quiet`` silences it), results to stdout or the ``-o`` file.
+
+``scenario check`` builds the study exactly as ``rank`` and ``report`` do, so it
+refuses everything they would, with the same message.
+
+Output files: every output of a command is checked before the first is
+written. A target must be absent, or a regular file and ``--force`` given;
+FIFOs, device nodes, sockets, directories and symbolic links are refused even
+with ``--force`` (exit 2), as are two outputs with the same path and an output
+that is the scenario file itself.
+
+Work limits: a study larger than the scenario's limits (see
+:data:`workbench.scenario.DEFAULT_LIMITS`: list entries, candidates, sweep
+cells) is refused before computing, with the key's location and how to
+coarsen; a ``[limits]`` table in the scenario file raises them deliberately.
 """
 
 from __future__ import annotations
@@ -51,6 +66,32 @@ def _version() -> str:
     return workbench.__version__
 
 
+def _check_outputs(
+    targets: Sequence[tuple[str, str | None]], force: bool, inputs: Sequence[str] = ()
+) -> None:
+    """Check every output target before anything is written (see the module docstring)."""
+    import os
+
+    from workbench.scenario import check_output_path
+
+    seen: dict[str, str] = {}
+    ins = {os.path.realpath(i) for i in inputs}
+    for option, target in targets:
+        if target is None or target == "-":
+            continue
+        real = os.path.realpath(target)
+        if real in seen:
+            raise ValueError(
+                f"{option}: {target} is also the {seen[real]} output; give each output its own file"
+            )
+        if real in ins:
+            raise ValueError(
+                f"{option}: {target} is the input scenario file; choose another output name"
+            )
+        seen[real] = option
+        check_output_path(target, force, option)
+
+
 def _write_or_print(text: str, out: str | None, force: bool) -> None:
     if out is None or out == "-":
         sys.stdout.write(text)
@@ -82,14 +123,17 @@ def _cmd_report(args) -> int:
     from workbench.scenario import load_scenario
 
     progress = _Progress(args.quiet)
+    out = Path(args.output) if args.output else Path(args.scenario).with_suffix(".html")
+    _check_outputs(
+        [("-o/--output", str(out)), ("--json", args.json), ("--csv", args.csv)],
+        args.force,
+        [args.scenario, *([args.since] if args.since else [])],
+    )
     progress(f"loading {args.scenario}")
     scenario = load_scenario(args.scenario)
-    out = Path(args.output) if args.output else Path(args.scenario).with_suffix(".html")
-    for target in (out, args.json, args.csv):
-        if target is not None and Path(target).exists() and not args.force:
-            raise FileExistsError(f"{target} exists; use --force to replace it")
     ev = evaluate(scenario, progress)
-    write_report(ev, out, overwrite=args.force, progress=progress)
+    write_report(ev, out, overwrite=args.force, progress=progress, since=args.since,
+                 tolerance=args.tolerance)
     print(f"heatpath: wrote {out}", file=sys.stderr)
     if args.json:
         write_text(evaluation_to_json(ev), args.json, overwrite=args.force)
@@ -102,12 +146,27 @@ def _cmd_report(args) -> int:
     return EXIT_OK
 
 
+def _cmd_diff(args) -> int:
+    import json
+
+    from workbench.review import diff_files, parse_tolerance
+
+    d = diff_files(args.old, args.new, parse_tolerance(args.tolerance))
+    if args.format == "json":
+        text = json.dumps(d.to_dict(), indent=2, ensure_ascii=False) + "\n"
+    else:
+        text = d.to_text()
+    _write_or_print(text, None, False)
+    return EXIT_OK
+
+
 def _cmd_rank(args) -> int:
     from workbench.exports import evaluation_to_json, ranking_csv
     from workbench.report import display_frame, evaluate
     from workbench.scenario import load_scenario
 
     progress = _Progress(args.quiet)
+    _check_outputs([("-o/--output", args.output)], args.force, [args.scenario])
     progress(f"loading {args.scenario}")
     scenario = load_scenario(args.scenario)
     ev = evaluate(scenario, progress)
@@ -232,14 +291,16 @@ def _cmd_materials_check(args) -> int:
 def _cmd_scenario_new(args) -> int:
     from workbench.scenario import starter_text
 
+    _check_outputs([("-o/--output", args.output)], args.force)
     _write_or_print(starter_text(args.kind), args.output, args.force)
     return EXIT_OK
 
 
 def _cmd_scenario_check(args) -> int:
-    from workbench.scenario import load_scenario, scenario_hash
+    from workbench.scenario import check_scenario, load_scenario, scenario_hash
 
     s = load_scenario(args.file)
+    check_scenario(s)
     print(
         f"{args.file}: ok ({s.kind}, {len(s.candidates)} candidate(s), "
         f"hash {scenario_hash(s)[:16]})"
@@ -268,6 +329,9 @@ def build_parser() -> argparse.ArgumentParser:
     r.add_argument("-o", "--output", help="HTML file (default: SCENARIO with .html)")
     r.add_argument("--json", help="also write the results as JSON (SI values)")
     r.add_argument("--csv", help="also write the results table as CSV")
+    r.add_argument("--since", help="earlier scenario file: add 'Changes since the previous review'")
+    r.add_argument("--tolerance", default="1%",
+                   help="with --since: list results that moved by more than this (default 1%%)")
     r.add_argument("--force", action="store_true", help="replace existing output files")
     r.set_defaults(func=_cmd_report)
 
@@ -278,6 +342,14 @@ def build_parser() -> argparse.ArgumentParser:
     k.add_argument("-o", "--output", help="output file (default: stdout)")
     k.add_argument("--force", action="store_true", help="replace an existing output file")
     k.set_defaults(func=_cmd_rank)
+
+    df = sub.add_parser("diff", help="what changed between two scenario files")
+    df.add_argument("old", help="earlier scenario file (.toml)")
+    df.add_argument("new", help="later scenario file (.toml)")
+    df.add_argument("--tolerance", default="1%",
+                    help="list key results that moved by more than this (default 1%%)")
+    df.add_argument("--format", choices=("text", "json"), default="text")
+    df.set_defaults(func=_cmd_diff)
 
     m = sub.add_parser("materials", help="list, show or check materials")
     msub = m.add_subparsers(dest="materials_command", required=True, metavar="ACTION")
@@ -337,6 +409,16 @@ def main(argv: Sequence[str] | None = None) -> int:
     except KeyboardInterrupt:
         print("heatpath: interrupted", file=sys.stderr)
         return 130
+    except MemoryError:
+        if args.debug:
+            traceback.print_exc()
+        print(
+            "heatpath: error: not enough memory for this study; coarsen it (fewer candidates or "
+            "thicknesses, a coarser time_step, a shorter duration) or lower the [limits] of the "
+            "scenario file",
+            file=sys.stderr,
+        )
+        return EXIT_BAD_INPUT
     except BrokenPipeError:
         return EXIT_OK
     except Exception as exc:  # an internal error: say so, without a traceback unless --debug

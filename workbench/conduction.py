@@ -18,11 +18,16 @@ import numpy as np
 
 from workbench._checks import (
     ValidityWarning,
+    absolute_temperature,
     broadcast,
     broadcast_shape,
     finite,
+    finite_result,
+    integer,
+    layers,
     nonnegative,
     positive,
+    scalar,
     scalar_or_array,
 )
 
@@ -82,14 +87,14 @@ def heat_flux(k: ArrayLike, thickness: ArrayLike, delta_t: ArrayLike):
     l_ = positive("thickness", thickness, "m")
     dt = finite("delta_t", delta_t, "K")
     broadcast_shape(k=k_, thickness=l_, delta_t=dt)
-    return scalar_or_array(k_ * dt / l_)
+    return finite_result("heat_flux", scalar_or_array(k_ * dt / l_), "k", "thickness", "delta_t")
 
 
 def _layer_resistances(thicknesses, conductivities) -> np.ndarray:
-    l_ = positive("thicknesses", thicknesses, "m")
-    k_ = positive("conductivities", conductivities, "W/(m·K)")
+    l_ = layers("thicknesses", positive("thicknesses", thicknesses, "m"), "m")
+    k_ = layers("conductivities", positive("conductivities", conductivities, "W/(m·K)"), "W/(m·K)")
     broadcast_shape(thicknesses=l_, conductivities=k_)
-    return np.atleast_1d(l_ / k_)
+    return finite_result("layer resistances", l_ / k_, "thicknesses", "conductivities")
 
 
 def series_resistance(
@@ -133,7 +138,10 @@ def series_resistance(
     rse = nonnegative("r_se", r_se, "m²·K/W")
     total = r_layers.sum(axis=-1)
     broadcast_shape(layers=total, r_si=rsi, r_se=rse)
-    return scalar_or_array(total + rsi + rse)
+    return finite_result(
+        "series_resistance", scalar_or_array(total + rsi + rse),
+        "thicknesses", "conductivities", "r_si", "r_se",
+    )
 
 
 def u_value(
@@ -167,7 +175,12 @@ def u_value(
     >>> round(u_value([0.1, 0.05], [1.0, 0.04], r_si=0.13, r_se=0.04), 4)
     0.6579
     """
-    return scalar_or_array(1.0 / np.asarray(series_resistance(thicknesses, conductivities, r_si, r_se)))
+    r_total = np.asarray(series_resistance(thicknesses, conductivities, r_si, r_se))
+    with np.errstate(divide="ignore", over="ignore"):
+        u = 1.0 / r_total
+    return finite_result(
+        "u_value", scalar_or_array(u), "thicknesses", "conductivities", "r_si", "r_se"
+    )
 
 
 def wall_temperatures(
@@ -213,8 +226,8 @@ def wall_temperatures(
     array([293.15, 289.15, 273.15])
     """
     r_layers = _layer_resistances(thicknesses, conductivities)
-    ti = finite("t_inside", t_inside, "K")
-    te = finite("t_outside", t_outside, "K")
+    ti = absolute_temperature("t_inside", t_inside)
+    te = absolute_temperature("t_outside", t_outside)
     rsi = nonnegative("r_si", r_si, "m²·K/W")
     rse = nonnegative("r_se", r_se, "m²·K/W")
     r_sum = r_layers.sum(axis=-1)
@@ -224,7 +237,11 @@ def wall_temperatures(
     t_surface_in = np.broadcast_to(ti - q[..., 0] * rsi, lead)[..., None]
     r_layers = np.broadcast_to(r_layers, lead + r_layers.shape[-1:])
     drops = np.cumsum(q * r_layers, axis=-1)
-    return np.concatenate([t_surface_in, t_surface_in - drops], axis=-1)
+    return finite_result(
+        "wall_temperatures",
+        np.concatenate([t_surface_in, t_surface_in - drops], axis=-1),
+        "thicknesses", "conductivities", "t_inside", "t_outside", "r_si", "r_se",
+    )
 
 
 def required_thickness(
@@ -273,7 +290,10 @@ def required_thickness(
     q = positive("max_flux", max_flux, "W/m²")
     ro = nonnegative("other_resistance", other_resistance, "m²·K/W")
     broadcast_shape(k=k_, delta_t=dt, max_flux=q, other_resistance=ro)
-    return scalar_or_array(np.maximum(0.0, k_ * (dt / q - ro)))
+    return finite_result(
+        "required_thickness", scalar_or_array(np.maximum(0.0, k_ * (dt / q - ro))),
+        "k", "delta_t", "max_flux", "other_resistance",
+    )
 
 
 def mass_per_area(densities: ArrayLike, thicknesses: ArrayLike):
@@ -304,10 +324,12 @@ def mass_per_area(densities: ArrayLike, thicknesses: ArrayLike):
     >>> round(mass_per_area([2700.0, 30.0], [0.002, 0.05]), 6)
     6.9
     """
-    rho = positive("densities", densities, "kg/m³")
-    l_ = positive("thicknesses", thicknesses, "m")
+    rho = layers("densities", positive("densities", densities, "kg/m³"), "kg/m³")
+    l_ = layers("thicknesses", positive("thicknesses", thicknesses, "m"), "m")
     broadcast_shape(densities=rho, thicknesses=l_)
-    return scalar_or_array(np.atleast_1d(rho * l_).sum(axis=-1))
+    return finite_result(
+        "mass_per_area", scalar_or_array((rho * l_).sum(axis=-1)), "densities", "thicknesses"
+    )
 
 
 _COST_BASES = ("per_kg", "per_m3")
@@ -352,8 +374,14 @@ def cost_per_area(
     ...                     basis=["per_kg", "per_m3"]), 4)
     22.2
     """
-    c = nonnegative("unit_costs", unit_costs, "currency/kg or currency/m³")
-    l_ = positive("thicknesses", thicknesses, "m")
+    c = layers(
+        "unit_costs",
+        nonnegative("unit_costs", unit_costs, "currency/kg or currency/m³"),
+        "currency/kg or currency/m³",
+    )
+    l_ = layers("thicknesses", positive("thicknesses", thicknesses, "m"), "m")
+    if isinstance(basis, bool | np.bool_) or basis is None:
+        raise TypeError(f"basis: expected 'per_kg' or 'per_m3' (or one per layer), got {basis!r}")
     bases = np.atleast_1d(np.asarray(basis, dtype=object))
     unknown = sorted({str(b) for b in bases.ravel()} - set(_COST_BASES))
     if unknown:
@@ -362,16 +390,19 @@ def cost_per_area(
     if np.any(per_kg):
         if densities is None:
             raise ValueError("densities: needed in kg/m³ where basis is 'per_kg'")
-        rho = positive("densities", densities, "kg/m³")
+        rho = layers("densities", positive("densities", densities, "kg/m³"), "kg/m³")
     else:
         rho = np.ones(1)
     broadcast_shape(unit_costs=c, thicknesses=l_, densities=rho, basis=per_kg)
     factor = per_kg * rho + (1.0 - per_kg)
-    return scalar_or_array(np.atleast_1d(c * factor * l_).sum(axis=-1))
+    return finite_result(
+        "cost_per_area", scalar_or_array(np.atleast_1d(c * factor * l_).sum(axis=-1)),
+        "unit_costs", "thicknesses", "densities",
+    )
 
 
 def _check_table(temperatures, conductivities) -> tuple[np.ndarray, np.ndarray]:
-    tt = positive("temperatures", temperatures, "K")
+    tt = absolute_temperature("temperatures", temperatures)
     kk = positive("conductivities", conductivities, "W/(m·K)")
     if tt.ndim != 1 or kk.shape != tt.shape:
         raise ValueError(
@@ -446,8 +477,8 @@ def mean_conductivity(
     0.025
     """
     tt, kk = _check_table(temperatures, conductivities)
-    a = finite("t1", t1, "K")
-    b = finite("t2", t2, "K")
+    a = absolute_temperature("t1", t1)
+    b = absolute_temperature("t2", t2)
     broadcast_shape(t1=a, t2=b)
     lo, hi = np.minimum(a, b), np.maximum(a, b)
     if np.any(lo < tt[0] - 1e-9) or np.any(hi > tt[-1] + 1e-9):
@@ -463,7 +494,10 @@ def mean_conductivity(
     safe = np.where(same, 1.0, span)
     kbar = (_k_integral(tt, kk, hi) - _k_integral(tt, kk, lo)) / safe
     k_at = np.interp(a, tt, kk)
-    return scalar_or_array(np.where(same, k_at, kbar))
+    return finite_result(
+        "mean_conductivity", scalar_or_array(np.where(same, k_at, kbar)),
+        "temperatures", "conductivities", "t1", "t2",
+    )
 
 
 # ---------------------------------------------------------------------------
@@ -502,12 +536,20 @@ class SolidLayer:
     name: str = ""
 
     def __post_init__(self):
-        positive("thickness", self.thickness, "m")
+        positive("thickness", scalar("thickness", self.thickness, "m"), "m")
         if self.k_table is None:
             if self.conductivity is None:
                 raise ValueError("conductivity: give a value in W/(m·K) or a k_table")
-            positive("conductivity", self.conductivity, "W/(m·K)")
+            positive("conductivity", scalar("conductivity", self.conductivity, "W/(m·K)"), "W/(m·K)")
         else:
+            if (
+                isinstance(self.k_table, str | bytes)
+                or not isinstance(self.k_table, Sequence | np.ndarray)
+                or len(self.k_table) != 2
+            ):
+                raise ValueError(
+                    "k_table: expected (temperatures [K], conductivities [W/(m·K)])"
+                )
             tt, kk = _check_table(*self.k_table)
             object.__setattr__(self, "k_table", (tt, kk))
 
@@ -561,12 +603,14 @@ class WallSolution:
         return 1.0 / self.total_resistance
 
 
-def _film(name: str, film: Film, t_surface, t_air) -> np.ndarray:
-    if callable(film):
-        r = np.asarray(film(t_surface, t_air), dtype=float)
-    else:
-        r = np.asarray(film, dtype=float)
-    return nonnegative(name, r, "m²·K/W")
+def _film(name: str, film: Film, t_surface, t_air, shape) -> np.ndarray:
+    r = nonnegative(name, film(t_surface, t_air) if callable(film) else film, "m²·K/W")
+    try:
+        return np.broadcast_to(r, shape)
+    except ValueError:
+        raise ValueError(
+            f"{name}: shape {r.shape} does not broadcast to the temperatures' shape {shape}"
+        ) from None
 
 
 def solve_wall(
@@ -618,11 +662,22 @@ def solve_wall(
     >>> round(float(sol.heat_flux), 6)
     20.0
     """
+    if isinstance(layers, str | bytes) or not isinstance(layers, Sequence | np.ndarray):
+        raise TypeError(f"layers: expected a sequence of layers, got {type(layers).__name__}")
     if len(layers) == 0:
         raise ValueError("layers: a wall needs at least one layer")
-    ti = finite("t_inside", t_inside, "K")
-    te = finite("t_outside", t_outside, "K")
+    for j, layer in enumerate(layers):
+        if not callable(getattr(layer, "resistance", None)):
+            raise TypeError(
+                f"layers: item {j} ({type(layer).__name__}) has no resistance(t_a, t_b) method"
+            )
+    ti = absolute_temperature("t_inside", t_inside)
+    te = absolute_temperature("t_outside", t_outside)
+    rtol = float(positive("rtol", scalar("rtol", rtol), "-"))
+    max_iter = integer("max_iter", max_iter, minimum=1)
     shape = broadcast_shape(t_inside=ti, t_outside=te)
+    if 0 in shape:
+        raise ValueError(f"t_inside, t_outside: no temperatures given (K), shape {shape}")
     ti, te = broadcast(t_inside=np.broadcast_to(ti, shape), t_outside=np.broadcast_to(te, shape))
     n = len(layers)
     # initial guess: linear temperature profile between the two air temperatures
@@ -637,8 +692,8 @@ def solve_wall(
             axis=-1,
         )
         positive("layers", rs, "m²·K/W (layer resistance)")
-        rsi = np.broadcast_to(_film("r_si", r_si, temps[..., 0], ti), shape)
-        rse = np.broadcast_to(_film("r_se", r_se, temps[..., -1], te), shape)
+        rsi = _film("r_si", r_si, temps[..., 0], ti, shape)
+        rse = _film("r_se", r_se, temps[..., -1], te, shape)
         r_all = np.concatenate([rsi[..., None], rs, rse[..., None]], axis=-1)
         q = (ti - te) / r_all.sum(axis=-1)
         drops = np.cumsum(q[..., None] * r_all, axis=-1)
@@ -646,6 +701,7 @@ def solve_wall(
         if r_prev is not None:
             change = np.max(np.abs(r_all - r_prev) / np.maximum(np.abs(r_all), 1e-300))
             if change <= rtol:
+                finite_result("solve_wall", (q, temps), "layers", "t_inside", "t_outside", "r_si", "r_se")
                 return WallSolution(q, temps, rs, rsi, rse, it)
         r_prev = r_all
     raise RuntimeError(

@@ -26,9 +26,25 @@ from pathlib import Path
 import numpy as np
 import pandas as pd
 
+from workbench._checks import broadcast, positive
 from workbench.materials import MARKERS, load_sources, tables_dir
 
-__all__ = ["COOLANT_COLUMNS", "PHASE_CHANGES", "load_coolants", "coolant"]
+__all__ = [
+    "COOLANT_COLUMNS",
+    "PHASE_CHANGES",
+    "DEFAULT_COOLANT",
+    "load_coolants",
+    "coolant",
+    "specific_heats_for",
+]
+
+#: Coolant whose specific heats :func:`specific_heats_for` gives a coolant that
+#: is not in the table (ice and liquid water: water is the base of most packs).
+DEFAULT_COOLANT = "water_ice"
+#: Tolerances of :func:`specific_heats_for`: a coolant is the table's row when its
+#: phase-change temperature lies within this many K and its latent heat within
+#: this fraction.
+_MATCH_T, _MATCH_L = 0.05, 0.005
 
 #: Kinds of phase change a coolant uses.
 PHASE_CHANGES: tuple[str, ...] = ("melting", "sublimation")
@@ -178,7 +194,66 @@ def coolant(coolant_id: str) -> pd.Series:
     >>> float(coolant("pcm_plus5")["t_phase_change"])
     278.15
     """
+    if not isinstance(coolant_id, str):
+        raise TypeError(f"coolant_id: expected a coolant id (text), got {coolant_id!r:.60}")
     frame = _curated()
     if coolant_id not in frame.index:
-        raise ValueError(f"coolant: unknown id {coolant_id!r}; valid: {list(frame.index)}")
+        raise ValueError(f"coolant_id: unknown id {coolant_id!r}; valid: {list(frame.index)}")
     return frame.loc[coolant_id].copy()
+
+
+def specific_heats_for(t_phase_change, latent_heat) -> tuple[np.ndarray, np.ndarray]:
+    """Specific heats of a coolant below and above its phase change, from the coolants table.
+
+    Parameters
+    ----------
+    t_phase_change : float or array
+        Phase-change temperature. [K]
+    latent_heat : float or array
+        Latent heat of melting or sublimation. [J/kg]
+
+    Returns
+    -------
+    (ndarray, ndarray)
+        ``specific_heat_solid`` and ``specific_heat_liquid`` [J/(kg·K)],
+        broadcast over the inputs: those of the table's coolant whose
+        phase-change temperature lies within 0.05 K and latent heat within
+        0.5 % of the given ones; for any other coolant those of
+        :data:`DEFAULT_COOLANT` (ice and liquid water). 0.0 where the table
+        has no such phase (dry ice has no liquid at atmospheric pressure).
+
+    Notes
+    -----
+    The table's specific heats are means over the range each phase passes
+    through in a shipper, so the sensible heat between those ends is exact.
+
+    References
+    ----------
+    Per value, see the ``*_source`` columns of :func:`load_coolants`
+    (water: ``iapws-r10-06``, ``iapws-95``).
+
+    Examples
+    --------
+    >>> cs, cl = specific_heats_for(273.15, 333550.0)
+    >>> float(cs), float(cl)
+    (2023.0, 4191.0)
+    >>> [float(x) for x in specific_heats_for(194.65, 571000.0)]
+    [0.0, 0.0]
+    """
+    tpc = positive("t_phase_change", t_phase_change, "K")
+    lat = positive("latent_heat", latent_heat, "J/kg")
+    for name, arr, unit in (("t_phase_change", tpc, "K"), ("latent_heat", lat, "J/kg")):
+        if arr.size == 0:
+            raise ValueError(f"{name}: empty; give at least one value [{unit}]")
+    tpc, lat = (np.array(a, float) for a in broadcast(t_phase_change=tpc, latent_heat=lat))
+    frame = _curated()
+    default = frame.loc[DEFAULT_COOLANT]
+    cs = np.full(tpc.shape, float(default["specific_heat_solid"]))
+    cl = np.full(tpc.shape, float(default["specific_heat_liquid"]))
+    for _, row in frame.iterrows():
+        same = (np.abs(tpc - float(row["t_phase_change"])) <= _MATCH_T) & (
+            np.abs(lat - float(row["latent_heat"])) <= _MATCH_L * float(row["latent_heat"])
+        )
+        cs = np.where(same, float(row["specific_heat_solid"]), cs)
+        cl = np.where(same, float(row["specific_heat_liquid"]), cl)
+    return cs, cl

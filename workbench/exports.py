@@ -1,10 +1,15 @@
 """Take the result away: CSV for spreadsheets, JSON for machines.
 
 CSV (:func:`frame_to_csv`, :func:`results_csv`, :func:`ranking_csv`) has the
-unit of every quantity in its header, in the chosen display system. Text cells
-that a spreadsheet would run as a formula (starting with ``=``, ``+``, ``-``,
-``@``, a tab or a carriage return) are prefixed with a single quote; numbers
-stay numbers, so a real negative value is written as ``-5.2``, not as text.
+unit of every quantity in its header, in the chosen display system. Against
+formula injection it follows the OWASP "CSV Injection" guidance: every field
+is quoted (:data:`csv.QUOTE_ALL`, so a carriage return or a line break inside a
+name stays inside its cell), and a text cell whose first non-blank character
+(also after leading quote characters) is one of :data:`FORMULA_PREFIXES`
+(``=``, ``+``, ``-``, ``@``, ``|``, a tab, a carriage return, or the full-width
+``＝ ＋ － ＠``), or that starts a ``DDE(`` call, is prefixed with a single
+quote. Numbers stay numbers, so a real negative value is written as ``-5.2``,
+not as text.
 
 JSON (:func:`evaluation_to_json`) keeps every value in SI at full precision,
 with a ``units`` map per table, the scenario hash and the tool version.
@@ -38,15 +43,31 @@ __all__ = [
     "text_table",
 ]
 
-FORMULA_PREFIXES = ("=", "+", "-", "@", "\t", "\r")
-"""First characters that make a spreadsheet treat a text cell as a formula."""
+FORMULA_PREFIXES = ("=", "+", "-", "@", "|", "\t", "\r", "＝", "＋", "－", "＠")
+"""First characters (after blanks and quote characters) that make a spreadsheet
+treat a text cell as a formula (OWASP "CSV Injection")."""
+
+# Blanks a spreadsheet skips before a formula; the tab and the carriage return are
+# formula prefixes themselves and are not skipped.
+_BLANKS = " \n\f\v\u00a0\u2000\u2001\u2002\u2003\u2004\u2005\u2006\u2007\u2008\u2009\u200a\u202f\u205f\u3000\ufeff"
+_QUOTES = "'\"`‘’“”"
+
+
+def _formula_like(text: str) -> bool:
+    """True when a spreadsheet could read ``text`` as a formula or a DDE call."""
+    rest = text.lstrip(_BLANKS)
+    while rest and rest[0] in _QUOTES:
+        rest = rest[1:].lstrip(_BLANKS)
+    return rest.startswith(FORMULA_PREFIXES) or rest[:4].upper() == "DDE("
 
 
 def neutralise_cell(value: Any) -> Any:
     """A CSV cell safe to open in a spreadsheet.
 
-    Text starting with one of :data:`FORMULA_PREFIXES` gets a leading single
-    quote; numbers (including negative ones) and other text are unchanged.
+    Text whose first non-blank character (after any leading quote
+    characters) is one of :data:`FORMULA_PREFIXES`, or that starts a ``DDE(``
+    call, gets a leading single quote; numbers (including negative ones) and
+    other text are unchanged.
 
     Examples
     --------
@@ -54,8 +75,12 @@ def neutralise_cell(value: Any) -> Any:
     '\\'=HYPERLINK("http://x")'
     >>> neutralise_cell(-5.2), neutralise_cell("PIR 32"), neutralise_cell("-")
     (-5.2, 'PIR 32', "'-")
+    >>> neutralise_cell("  =1+1"), neutralise_cell("＝1+1"), neutralise_cell("|cmd")
+    ("'  =1+1", "'＝1+1", "'|cmd")
+    >>> neutralise_cell("dde(\\"cmd\\")"), neutralise_cell("\\"=1"), neutralise_cell("\\r=1")
+    ('\\'dde("cmd")', '\\'"=1', "'\\r=1")
     """
-    if isinstance(value, str) and value.startswith(FORMULA_PREFIXES):
+    if isinstance(value, str) and _formula_like(value):
         return "'" + value
     return value
 
@@ -76,10 +101,16 @@ def _cell(v: Any) -> Any:
 def frame_to_csv(frame: pd.DataFrame, index: bool = True) -> str:
     """CSV text of a table, every text cell neutralised (see :func:`neutralise_cell`).
 
-    Numbers are written with full precision (``repr``); NaN as an empty cell.
+    Every field is quoted (:data:`csv.QUOTE_ALL`). Numbers are written with full
+    precision (``repr``) and never prefixed; NaN as an empty cell.
+
+    Examples
+    --------
+    >>> frame_to_csv(pd.DataFrame({"x": [-5.2]}, index=pd.Index(["\\r=1+1"], name="n")))
+    '"n","x"\\n"\\'\\r=1+1","-5.2"\\n'
     """
     buf = io.StringIO()
-    w = csv.writer(buf, lineterminator="\n")
+    w = csv.writer(buf, lineterminator="\n", quoting=csv.QUOTE_ALL)
     cols = list(frame.columns)
     w.writerow([_cell(frame.index.name or "")] * index + [_cell(c) for c in cols])
     for idx, row in zip(frame.index, frame.itertuples(index=False), strict=True):

@@ -23,7 +23,15 @@ from collections.abc import Sequence
 
 import numpy as np
 
-from workbench._checks import broadcast, nonnegative, positive, scalar_or_array
+from workbench._checks import (
+    broadcast,
+    broadcast_shape,
+    finite_result,
+    layers,
+    nonnegative,
+    positive,
+    scalar_or_array,
+)
 
 #: A float, a sequence of floats or an array (broadcasting).
 ArrayLike = float | Sequence[float] | np.ndarray
@@ -76,7 +84,9 @@ def shell_volume(
     c = positive("height", height, "m")
     t = nonnegative("thickness", thickness, "m")
     a, b, c, t = broadcast(length=a, width=b, height=c, thickness=t)
-    return scalar_or_array((a + 2 * t) * (b + 2 * t) * (c + 2 * t) - a * b * c)
+    with np.errstate(over="ignore", invalid="ignore"):
+        v = (a + 2 * t) * (b + 2 * t) * (c + 2 * t) - a * b * c
+    return finite_result("shell_volume", scalar_or_array(v), "length", "width", "height", "thickness")
 
 
 def coolant_layer_thickness(
@@ -122,7 +132,8 @@ def coolant_layer_thickness(
     hi = v / (2.0 * np.maximum(np.maximum(a * b, a * c), b * c)) + 1e-12
     for _ in range(80):
         mid = 0.5 * (lo + hi)
-        big = (a + 2 * mid) * (b + 2 * mid) * (c + 2 * mid) - a * b * c >= v
+        with np.errstate(over="ignore", invalid="ignore"):
+            big = (a + 2 * mid) * (b + 2 * mid) * (c + 2 * mid) - a * b * c >= v
         hi = np.where(big, mid, hi)
         lo = np.where(big, lo, mid)
     return scalar_or_array(np.where(v == 0, 0.0, 0.5 * (lo + hi)))
@@ -219,20 +230,25 @@ def wall_mass(
     a = positive("length", length, "m")
     b = positive("width", width, "m")
     c = positive("height", height, "m")
-    t = np.atleast_1d(nonnegative("thicknesses", thicknesses, "m"))
-    rho = np.atleast_1d(nonnegative("densities", densities, "kg/m³"))
+    t = layers("thicknesses", nonnegative("thicknesses", thicknesses, "m"), "m")
+    rho = layers("densities", nonnegative("densities", densities, "kg/m³"), "kg/m³")
     t, rho = broadcast(thicknesses=t, densities=rho)
+    broadcast_shape(length=a, width=b, height=c, layers=t[..., 0])
     inner = np.cumsum(t, axis=-1) - t
     a_, b_, c_ = (x[..., None] for x in (a, b, c))
     try:
-        vol = (a_ + 2 * (inner + t)) * (b_ + 2 * (inner + t)) * (c_ + 2 * (inner + t)) - (
-            (a_ + 2 * inner) * (b_ + 2 * inner) * (c_ + 2 * inner)
-        )
+        with np.errstate(over="ignore", invalid="ignore"):
+                vol = (a_ + 2 * (inner + t)) * (b_ + 2 * (inner + t)) * (c_ + 2 * (inner + t)) - (
+                (a_ + 2 * inner) * (b_ + 2 * inner) * (c_ + 2 * inner)
+            )
     except ValueError:
         raise ValueError(
             f"shapes do not broadcast: length {np.shape(a)}, thicknesses {np.shape(t)}"
         ) from None
-    return scalar_or_array((rho * vol).sum(axis=-1))
+    return finite_result(
+        "wall_mass", scalar_or_array((rho * vol).sum(axis=-1)),
+        "length", "width", "height", "thicknesses", "densities",
+    )
 
 
 def billable_mass(

@@ -27,8 +27,12 @@ import numpy as np
 from workbench._checks import (
     ValidityWarning,
     broadcast,
+    broadcast_shape,
+    finite_result,
+    layers,
     nonnegative,
     positive,
+    scalar,
     scalar_or_array,
 )
 from workbench.conduction import ArrayLike
@@ -155,8 +159,14 @@ def box_conductance_breakdown(
     a, b, c, t = _box_dims(length, width, height, wall_thickness)
     kk = positive("k", k, "W/(m·K)")
     s_f, s_e, s_c = _shape_factors(a, b, c, t)
+    broadcast_shape(length=a, k=kk)
     s_f, s_e, s_c, kk = broadcast(faces=s_f, edges=s_e, corners=s_c, k=kk)
-    return BoxConductance(faces=kk * s_f, edges=kk * s_e, corners=kk * s_c)
+    out = BoxConductance(faces=kk * s_f, edges=kk * s_e, corners=kk * s_c)
+    finite_result(
+        "box_conductance", (out.faces, out.edges, out.corners),
+        "length", "width", "height", "wall_thickness", "k",
+    )
+    return out
 
 
 def box_conductance(
@@ -254,11 +264,15 @@ def layered_box_conductance(
     >>> round(float(g.total), 4)
     0.3546
     """
-    l_ = np.atleast_1d(positive("thicknesses", thicknesses, "m"))
-    k_ = np.atleast_1d(positive("conductivities", conductivities, "W/(m·K)"))
+    l_ = layers("thicknesses", positive("thicknesses", thicknesses, "m"), "m")
+    k_ = layers("conductivities", positive("conductivities", conductivities, "W/(m·K)"), "W/(m·K)")
     l_, k_ = broadcast(thicknesses=l_, conductivities=k_)
     rsi = nonnegative("r_si", r_si, "m²·K/W")
     rse = nonnegative("r_se", r_se, "m²·K/W")
+    broadcast_shape(
+        length=positive("length", length, "m"),
+        layers=l_[..., 0], r_si=rsi, r_se=rse,
+    )
     total_l = l_.sum(axis=-1)
     r_layers = (l_ / k_).sum(axis=-1)
     a, b, c, t = _box_dims(length, width, height, total_l)
@@ -266,22 +280,31 @@ def layered_box_conductance(
     s_f, s_e, s_c = _shape_factors(a, b, c, t)
     faces = s_f * t / (rsi + r_layers + rse)
     faces, edges, corners = broadcast(faces=faces, edges=k_eq * s_e, corners=k_eq * s_c)
+    finite_result(
+        "layered_box_conductance", (faces, edges, corners),
+        "length", "width", "height", "thicknesses", "conductivities", "r_si", "r_se",
+    )
     return BoxConductance(faces=faces, edges=edges, corners=corners)
 
 
 def _cylinder(inner_radius, thicknesses, conductivities, r_si, r_se):
     r0 = positive("inner_radius", inner_radius, "m")
-    l_ = np.atleast_1d(positive("thicknesses", thicknesses, "m"))
-    k_ = np.atleast_1d(positive("conductivities", conductivities, "W/(m·K)"))
+    l_ = layers("thicknesses", positive("thicknesses", thicknesses, "m"), "m")
+    k_ = layers("conductivities", positive("conductivities", conductivities, "W/(m·K)"), "W/(m·K)")
     l_, k_ = broadcast(thicknesses=l_, conductivities=k_)
     rsi = nonnegative("r_si", r_si, "m²·K/W")
     rse = nonnegative("r_se", r_se, "m²·K/W")
+    broadcast_shape(inner_radius=r0, layers=l_[..., 0], r_si=rsi, r_se=rse)
     radii = np.asarray(r0)[..., None] + np.concatenate(
         [np.zeros(l_.shape[:-1] + (1,)), np.cumsum(l_, axis=-1)], axis=-1
     )
     r_out = radii[..., -1]
     r_cond = (np.log(radii[..., 1:] / radii[..., :-1]) / (2.0 * np.pi * k_)).sum(axis=-1)
     total = rsi / (2.0 * np.pi * r0) + r_cond + rse / (2.0 * np.pi * r_out)
+    finite_result(
+        "cylinder_resistance_per_length", total,
+        "inner_radius", "thicknesses", "conductivities", "r_si", "r_se",
+    )
     critical = k_[..., -1] * rse  # k/h with h = 1/r_se
     if np.any((rse > 0) & (r_out < critical)):
         warnings.warn(
@@ -386,7 +409,11 @@ def cylinder_conductance(
     """
     ell = positive("length", length, "m")
     r = _cylinder(inner_radius, thicknesses, conductivities, r_si, r_se)
-    return scalar_or_array(ell / r)
+    broadcast_shape(length=ell, inner_radius=r)
+    return finite_result(
+        "cylinder_conductance", scalar_or_array(ell / r),
+        "inner_radius", "thicknesses", "conductivities", "length", "r_si", "r_se",
+    )
 
 
 def critical_insulation_radius(k: ArrayLike, h: ArrayLike) -> float | np.ndarray:
@@ -422,7 +449,7 @@ def critical_insulation_radius(k: ArrayLike, h: ArrayLike) -> float | np.ndarray
     kk = positive("k", k, "W/(m·K)")
     hh = positive("h", h, "W/(m²·K)")
     kk, hh = broadcast(k=kk, h=hh)
-    return scalar_or_array(kk / hh)
+    return finite_result("critical_insulation_radius", scalar_or_array(kk / hh), "k", "h")
 
 
 def vacuum_panel_effective_conductivity(
@@ -483,7 +510,12 @@ def vacuum_panel_effective_conductivity(
     k0, d, a, b, psi = broadcast(
         centre_conductivity=k0, thickness=d, length=a, width=b, psi_edge=psi
     )
-    return scalar_or_array(k0 + psi * 2.0 * (a + b) / (a * b) * d)
+    with np.errstate(over="ignore"):
+        out = k0 + psi * 2.0 * (1.0 / a + 1.0 / b) * d
+    return finite_result(
+        "vacuum_panel_effective_conductivity", scalar_or_array(out),
+        "centre_conductivity", "thickness", "length", "width", "psi_edge",
+    )
 
 
 @dataclass(frozen=True)
@@ -516,6 +548,8 @@ class VacuumPanel:
 
     def __post_init__(self):
         # validates every field (ValueError naming the argument)
+        for name in ("thickness", "centre_conductivity", "length", "width", "psi_edge"):
+            scalar(name, getattr(self, name), "m or W/(m·K)")
         vacuum_panel_effective_conductivity(
             self.centre_conductivity, self.thickness, self.length, self.width, self.psi_edge
         )

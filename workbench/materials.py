@@ -38,6 +38,11 @@ Precedence: a user row **replaces** the curated row with the same ``id`` as a
 whole (no column-by-column mixing); rows with new ids are added. A user k(T)
 curve replaces the curated curve of the same id.
 
+Renamed ids: :data:`DEPRECATED_IDS` maps old curated ids to new ones;
+code that reads material ids from users' files (scenario loaders, candidate
+lists) passes each id through :func:`resolve_material_id`, which returns the
+new id and emits a :class:`DeprecatedMaterialIdWarning` naming it.
+
 Every problem in a file is reported as ``file:row:column: why`` (``row`` is
 the line number in the file, the header being line 1), all problems at once,
 in a :class:`MaterialsFileError`; nothing is loaded when there is any problem.
@@ -63,6 +68,9 @@ __all__ = [
     "PLAUSIBILITY_BANDS",
     "MARKERS",
     "MaterialsFileError",
+    "DEPRECATED_IDS",
+    "DeprecatedMaterialIdWarning",
+    "resolve_material_id",
     "load_materials",
     "load_sources",
     "load_conductivity_curves",
@@ -165,6 +173,85 @@ MARKERS: Mapping[str, str] = MappingProxyType(
     }
 )
 """Source markers allowed in place of a source key -> resolved text."""
+
+DEPRECATED_IDS: Mapping[str, str] = MappingProxyType(
+    {
+        # renamed in issue 17: a maker's trade mark and a producer's trade name
+        # gave way to a generic name and a standard designation
+        "pyroceram": "glass_ceramic_cordierite",
+        "zinc_zamak3": "zinc_znal4",
+        # re-based on a re-read source row of another density class
+        "concrete_light_1200": "concrete_light_1280",
+    }
+)
+"""Old curated material id -> current id. Old ids keep working through
+:func:`resolve_material_id`, with a :class:`DeprecatedMaterialIdWarning`."""
+
+
+class DeprecatedMaterialIdWarning(FutureWarning):
+    """A material id that was renamed in the curated table was used.
+
+    A :class:`FutureWarning` (shown to end users by default), because the old
+    id usually comes from a user's saved scenario file rather than from code.
+    """
+
+
+def resolve_material_id(material_id: str, *, where: str = "") -> str:
+    """Current id of a material, mapping a renamed (deprecated) id to its new id.
+
+    Loaders of scenario files, candidate lists and layer specifications call
+    this on every material id they read before looking it up in
+    :func:`load_materials`; a ``DataFrame.loc`` lookup cannot warn by itself.
+
+    Parameters
+    ----------
+    material_id : str
+        Id as written by the user or a saved file.
+    where : str, optional
+        Where the id was read (e.g. ``"wall.toml:12:3"``), placed in the
+        warning so the user can fix the file.
+
+    Returns
+    -------
+    str
+        ``material_id`` itself, or its new id when it is a deprecated id
+        (then a :class:`DeprecatedMaterialIdWarning` naming the new id is
+        emitted). Ids that are unknown are returned unchanged; the lookup
+        that follows reports them.
+
+    Raises
+    ------
+    TypeError
+        If ``material_id`` is not a string.
+
+    Examples
+    --------
+    >>> resolve_material_id("eps_20")
+    'eps_20'
+    >>> import warnings
+    >>> with warnings.catch_warnings():
+    ...     warnings.simplefilter("ignore", DeprecatedMaterialIdWarning)
+    ...     resolve_material_id("zinc_zamak3")
+    'zinc_znal4'
+    """
+    if not isinstance(material_id, str):
+        raise TypeError(
+            f"material id must be a str (a key of the materials table), got {type(material_id).__name__}"
+        )
+    new = DEPRECATED_IDS.get(material_id)
+    if new is None:
+        return material_id
+    import warnings
+
+    prefix = f"{where}: " if where else ""
+    warnings.warn(
+        f"{prefix}material id {material_id!r} is deprecated; it was renamed to {new!r}. "
+        f"Replace {material_id!r} by {new!r} in the file; the old id will stop working in a later version.",
+        DeprecatedMaterialIdWarning,
+        stacklevel=2,
+    )
+    return new
+
 
 # property -> (source column, default unit in the curated table, units.KINDS kind)
 _NUMERIC: dict[str, tuple[str, str, str]] = {
@@ -961,12 +1048,17 @@ def _parse_kt(
     for line, cells in table.rows:
         rid = _cell(cells, columns, "id")
         if rid not in families:
+            renamed = (
+                f" (renamed to {DEPRECATED_IDS[rid]!r})"
+                if rid in DEPRECATED_IDS and DEPRECATED_IDS[rid] in families
+                else ""
+            )
             p.append(
                 _problem(
                     name,
                     line,
                     "id",
-                    f"unknown material id {rid!r}; it must be in the materials table or the user file",
+                    f"unknown material id {rid!r}{renamed}; it must be in the materials table or the user file",
                 )
             )
             continue

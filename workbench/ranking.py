@@ -27,7 +27,16 @@ from math import comb
 
 import numpy as np
 
-from workbench._checks import finite, nonnegative, positive
+from workbench._checks import (
+    absolute_temperature,
+    broadcast_shape,
+    finite,
+    finite_result,
+    integer,
+    nonnegative,
+    positive,
+    scalar,
+)
 
 __all__ = [
     "pareto_front",
@@ -147,7 +156,7 @@ def pareto_front(objectives) -> np.ndarray:
     >>> pareto_front([[1.0, 4.0], [2.0, 2.0], [3.0, 3.0], [2.0, 2.0], [4.0, 1.0]])
     array([ True,  True, False,  True,  True])
     """
-    x = np.asarray(objectives, dtype=float)
+    x = finite("objectives", objectives) if _is_small(objectives) else _as_float("objectives", objectives)
     if x.ndim != 2:
         raise ValueError(
             f"objectives: expected a 2-D array (n_points, n_objectives), got shape {x.shape}"
@@ -177,6 +186,20 @@ def pareto_front(objectives) -> np.ndarray:
     keep = _exact(y)
     mask[keep.nonzero()[0] if idx is None else idx[keep]] = True
     return mask
+
+
+def _is_small(value) -> bool:
+    """Lists, scalars and small arrays take the full check; large arrays are checked lazily."""
+    return not isinstance(value, np.ndarray) or value.size <= _SMALL
+
+
+def _as_float(name: str, value) -> np.ndarray:
+    if value.dtype.kind == "b":
+        raise ValueError(f"{name}: expected numbers, got a boolean array")
+    try:
+        return np.asarray(value, dtype=float)
+    except (TypeError, ValueError):
+        raise ValueError(f"{name}: expected numbers, got an array of {value.dtype}") from None
 
 
 def _check_finite(x: np.ndarray) -> None:
@@ -633,7 +656,9 @@ def check_limit(limit: Limit) -> ConstraintResult:
     """
     v = finite(limit.name, limit.values, limit.unit)
     v = np.atleast_1d(v)
-    lim = float(finite(f"{limit.name} limit", limit.limit, limit.unit))
+    if v.ndim != 1 or v.size == 0:
+        raise ValueError(f"{limit.name}: expected one value per candidate [{limit.unit}], got shape {v.shape}")
+    lim = scalar(f"{limit.name} limit", limit.limit, limit.unit)
     direction = str(limit.direction).lower()
     if direction not in ("max", "min"):
         raise ValueError(f"direction: unknown {limit.direction!r}; valid: ['max', 'min']")
@@ -685,17 +710,18 @@ def check_service_range(t_service_min, t_service_max, t_face_min, t_face_max) ->
     >>> r.reasons[0]
     'hot face 373.15 K is above the service limit 353.15 K'
     """
-    lo = finite("t_service_min", t_service_min, "K")
-    hi = finite("t_service_max", t_service_max, "K")
-    fmin = finite("t_face_min", t_face_min, "K")
-    fmax = finite("t_face_max", t_face_max, "K")
-    try:
-        lo, hi, fmin, fmax = np.broadcast_arrays(lo, hi, fmin, fmax)
-    except ValueError:
-        raise ValueError(
-            "shapes do not broadcast: t_service_min, t_service_max, t_face_min, t_face_max"
-        ) from None
+    lo = absolute_temperature("t_service_min", t_service_min)
+    hi = absolute_temperature("t_service_max", t_service_max)
+    fmin = absolute_temperature("t_face_min", t_face_min)
+    fmax = absolute_temperature("t_face_max", t_face_max)
+    broadcast_shape(t_service_min=lo, t_service_max=hi, t_face_min=fmin, t_face_max=fmax)
+    lo, hi, fmin, fmax = np.broadcast_arrays(lo, hi, fmin, fmax)
     lo, hi, fmin, fmax = (np.atleast_1d(a) for a in (lo, hi, fmin, fmax))
+    if lo.ndim != 1 or lo.size == 0:
+        raise ValueError(
+            "t_service_min, t_service_max, t_face_min, t_face_max: expected one value per "
+            f"candidate [K], got shape {lo.shape}"
+        )
     too_hot = fmax > hi
     too_cold = fmin < lo
     reasons = []
@@ -806,26 +832,43 @@ def screen_candidates(
     'thickness 0.06 m exceeds the maximum 0.05 m'
     """
     parts: list[ConstraintResult] = []
-    if t_service_min is not None or t_service_max is not None:
-        if t_service_min is None or t_service_max is None or t_hot is None or t_cold is None:
+    given = [("t_service_min", t_service_min), ("t_service_max", t_service_max),
+             ("t_hot", t_hot), ("t_cold", t_cold)]
+    if any(v is not None for _, v in given):
+        missing = [n for n, v in given if v is None]
+        if missing:
             raise ValueError(
-                "t_service_min, t_service_max, t_hot, t_cold: give all four [K] "
-                "to check the service range"
+                f"{', '.join(missing)}: give all of t_service_min, t_service_max, t_hot, t_cold "
+                "[K] to check the service range"
             )
+        checked = {n: absolute_temperature(n, v) for n, v in given}
+        broadcast_shape(**checked)
         parts.append(check_service_range(t_service_min, t_service_max, t_cold, t_hot))
     pairs = [
-        ("thickness", thickness, max_thickness, "m"),
-        ("mass per area", mass_per_area, max_mass_per_area, "kg/m²"),
-        ("cost per area", cost_per_area, max_cost_per_area, "currency/m²"),
+        ("thickness", "thickness", thickness, "max_thickness", max_thickness, "m"),
+        ("mass per area", "mass_per_area", mass_per_area, "max_mass_per_area", max_mass_per_area,
+         "kg/m²"),
+        ("cost per area", "cost_per_area", cost_per_area, "max_cost_per_area", max_cost_per_area,
+         "currency/m²"),
     ]
-    for name, vals, lim, unit in pairs:
+    for label, vname, vals, lname, lim, unit in pairs:
         if (vals is None) != (lim is None):
-            raise ValueError(f"{name}: give both the values and the limit [{unit}]")
+            raise ValueError(f"{vname}, {lname}: give both the values and the limit [{unit}]")
         if vals is not None:
-            parts.append(check_limit(Limit(name, vals, lim, "max", unit)))
+            v = nonnegative(vname, vals, unit)
+            if np.ndim(v) > 1 or np.size(v) == 0:
+                raise ValueError(f"{vname}: expected one value per candidate [{unit}], got shape {np.shape(v)}")
+            lim = float(nonnegative(lname, scalar(lname, lim, unit), unit))
+            parts.append(check_limit(Limit(label, v, lim, "max", unit)))
     parts.extend(check_limit(lim) for lim in limits)
     if not parts:
         raise ValueError("screen_candidates: no limit given")
+    n = {p.keep.shape[0] for p in parts}
+    if len(n) > 1:
+        raise ValueError(
+            "t_service_min, t_service_max, t_hot, t_cold, thickness, mass_per_area, "
+            f"cost_per_area: the limits cover different numbers of candidates {sorted(n)}"
+        )
     return combine_constraints(*parts)
 
 
@@ -896,15 +939,15 @@ def material_indices(conductivity, density, cost_per_kg=None) -> MaterialIndices
     """
     k = positive("conductivity", conductivity, "W/(m·K)")
     rho = positive("density", density, "kg/m³")
-    try:
-        k, rho = np.broadcast_arrays(k, rho)
-    except ValueError:
-        raise ValueError("shapes do not broadcast: conductivity, density") from None
+    broadcast_shape(conductivity=k, density=rho)
+    k, rho = np.broadcast_arrays(k, rho)
     mass = rho * k
     cost = None
     if cost_per_kg is not None:
         cm = nonnegative("cost_per_kg", cost_per_kg, "currency/kg")
+        broadcast_shape(conductivity=k, cost_per_kg=cm)
         cost = cm * mass
+    finite_result("material_indices", (mass, cost), "conductivity", "density", "cost_per_kg")
     return MaterialIndices(thickness_index=k.copy(), mass_index=mass, cost_index=cost)
 
 
@@ -948,8 +991,12 @@ def wall_for_resistance(resistance, conductivity, density, cost_per_kg=None):
     """
     r = positive("resistance", resistance, "m²·K/W")
     ix = material_indices(conductivity, density, cost_per_kg)
+    broadcast_shape(resistance=r, conductivity=ix.thickness_index)
     cost = None if ix.cost_index is None else r * ix.cost_index
-    return r * ix.thickness_index, r * ix.mass_index, cost
+    return finite_result(
+        "wall_for_resistance", (r * ix.thickness_index, r * ix.mass_index, cost),
+        "resistance", "conductivity", "density", "cost_per_kg",
+    )
 
 
 # ---------------------------------------------------------------------------
@@ -1019,7 +1066,7 @@ def normalise_criteria(values, directions) -> np.ndarray:
 
 def _weights(weights, n_criteria: int) -> np.ndarray:
     w = nonnegative("weights", weights)
-    if w.shape[-1] != n_criteria:
+    if w.ndim == 0 or w.shape[-1] != n_criteria:
         raise ValueError(f"weights: expected {n_criteria} per weighting, got {w.shape[-1]}")
     total = w.sum(axis=-1, keepdims=True)
     if np.any(total <= 0):
@@ -1096,12 +1143,8 @@ def simplex_weights(n_criteria: int, resolution: int = 10) -> np.ndarray:
     >>> simplex_weights(3, 10).shape
     (66, 3)
     """
-    c = int(n_criteria)
-    r = int(resolution)
-    if c < 1:
-        raise ValueError(f"n_criteria: must be >= 1, got {n_criteria}")
-    if r < 1:
-        raise ValueError(f"resolution: must be >= 1, got {resolution}")
+    c = integer("n_criteria", n_criteria, minimum=1)
+    r = integer("resolution", resolution, minimum=1, maximum=10**9)
     total = comb(r + c - 1, c - 1)
     if total > 5_000_000:
         raise ValueError(
@@ -1202,14 +1245,15 @@ def rank_stability(
     (array([1, 1, 1]), array([3, 3, 2]))
     """
     s = normalise_criteria(values, directions)
+    tol = float(nonnegative("tol", scalar("tol", tol), "-"))
+    resolution = integer("resolution", resolution, minimum=1)
+    seed = integer("seed", seed, minimum=0)
     nc = s.shape[1]
     if n_samples is None:
         w = simplex_weights(nc, resolution)
     else:
-        ns = int(n_samples)
-        if ns < 1:
-            raise ValueError(f"n_samples: must be >= 1, got {n_samples}")
-        w = np.random.default_rng(seed).dirichlet(np.ones(nc), size=ns)
+        ns = integer("n_samples", n_samples, minimum=1, maximum=5_000_000)
+        w = np.random.default_rng(integer("seed", seed, minimum=0)).dirichlet(np.ones(nc), size=ns)
     n = s.shape[0]
     share = np.zeros(n)
     best = np.full(n, n + 1, dtype=np.int64)
@@ -1289,6 +1333,7 @@ def simplex_winner(values, directions, resolution: int = 50, tol: float = 1e-12)
     array([False, False,  True, False, False])
     """
     s = normalise_criteria(values, directions)
+    tol = float(nonnegative("tol", scalar("tol", tol), "-"))
     if s.shape[1] not in (2, 3):
         raise ValueError(f"values: expected 2 or 3 criteria, got {s.shape[1]}")
     rs = rank_stability(values, directions, resolution=resolution, tol=tol)

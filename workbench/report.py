@@ -20,7 +20,7 @@ import math
 import os
 import re
 import warnings
-from collections.abc import Sequence
+from collections.abc import Mapping, Sequence
 from dataclasses import dataclass
 from pathlib import Path
 from typing import Any
@@ -36,6 +36,7 @@ from workbench.scenario import (
     StudyKind,
     _atomic_write,
     constraint_limit,
+    located_error,
     materials_for,
     parse_inputs,
     scenario_hash,
@@ -153,7 +154,10 @@ def evaluate(scenario: Scenario, progress=None) -> Evaluation:
         inputs_si = parse_inputs(scenario)
         study = study_from_scenario(scenario)
         say("computing results")
-        results, raw = kind.compute(study)
+        try:
+            results, raw = kind.compute(study)
+        except (ValueError, TypeError) as exc:  # a study's refusal, at the key it concerns
+            raise located_error(scenario, exc) from None
         say("ranking")
         table = rank_results(results, kind, criteria, scenario.constraints, scenario.display_system)
     messages = [f"{w.category.__name__}: {w.message}" for w in caught]
@@ -410,7 +414,45 @@ def engineering(value: float, sig: int = 3) -> str:
     return f"{m.rstrip('0').rstrip('.') if '.' in m else m}e{int(x)}"
 
 
+#: Readable names of the housing study's result columns (the unit is added beside them).
+_HOUSING_LABELS = {
+    "material": "Material",
+    "finish": "Finish",
+    "emissivity": "Emissivity of the outer finish",
+    "t_air_inside": "Inside air temperature",
+    "t_wall_inside": "Inner wall surface temperature",
+    "t_surface": "Mean surface temperature",
+    "t_hot_spot": "Hot-spot temperature",
+    "t_air_inside_degC": "Inside air temperature",
+    "t_surface_degC": "Mean surface temperature",
+    "t_hot_spot_degC": "Hot-spot temperature",
+    "hot_spot_rise": "Hot-spot rise above the inner wall",
+    "spreading_length": "Spreading length of the wall",
+    "biot_number": "Biot number of the wall",
+    "h_convection": "Outside convection coefficient",
+    "h_radiation": "Outside radiation coefficient",
+    "radiation_share": "Share of the heat radiated",
+    "dt_surface_d_emissivity": "Change of mean surface temperature per unit emissivity",
+    "mass": "Shell mass",
+    "cost": "Shell material cost",
+    "heat_capacity": "Heat capacity of shell and contents",
+    "t_surface_session_end": "Mean surface temperature at the end of the session",
+    "t_surface_session_end_degC": "Mean surface temperature at the end of the session",
+    "time_to_touch_limit": "Time for the mean surface to reach the touch limit",
+    "touch_class": "Touch class",
+    "touch_limit": "Touch limit",
+    "touch_limit_degC": "Touch limit",
+    "margin_surface": "Touch margin of the mean surface",
+    "margin_hot_spot": "Touch margin of the hot spot",
+    "passes": "Passes",
+    "why_not": "Why not",
+    "pareto": "Pareto-optimal",
+}
+
+
 def _label(col: str) -> str:
+    if col in _HOUSING_LABELS:
+        return _HOUSING_LABELS[col]
     if col.startswith("t_") and col not in ("t_surface_inside", "t_surface_outside"):
         col = col[2:] + "_temperature"
     text = col.replace("_", " ")
@@ -543,6 +585,30 @@ def _looks_numeric(s: str) -> bool:
         return s in ("n/a", "∞", "-∞")
 
 
+def _profile_texts(raw, si, ev: Evaluation) -> tuple[str, str]:
+    """How an ambient profile was given (steps, or a logger file with its sha256) and its SI reading."""
+    times, temps = (np.asarray(v, float) for v in si)
+    if isinstance(raw, Mapping):
+        from workbench.scenario import _resolve_path, file_sha256
+
+        target = _resolve_path(raw["file"], ev.scenario.base_dir)
+        digest = raw.get("sha256") or file_sha256(target)
+        shown = f"logger file {raw['file']} (sha256 {digest[:16]}…)"
+        si_text = (
+            f"{times.size} readings over {units.format_quantity(times[-1], 'time', ev.system)}, "
+            f"{units.format_quantity(temps.min(), 'temperature', ev.system)} to "
+            f"{units.format_quantity(temps.max(), 'temperature', ev.system)}"
+        )
+        return shown, si_text
+    shown = "; ".join(f"{a} → {b}" for a, b in raw)
+    si_text = "; ".join(
+        f"{units.format_quantity(a, 'time', ev.system)} → "
+        f"{units.format_quantity(b, 'temperature', ev.system)}"
+        for a, b in zip(times, temps, strict=True)
+    )
+    return shown, si_text
+
+
 def _inputs_frame(ev: Evaluation) -> pd.DataFrame:
     rows = []
     for spec in ev.kind.inputs:
@@ -558,12 +624,11 @@ def _inputs_frame(ev: Evaluation) -> pd.DataFrame:
             shown = ", ".join(map(str, raw))
             si_text = ", ".join(units.format_quantity(v, "thickness", ev.system) for v in si)
         elif spec.kind == "profile":
-            shown = "; ".join(f"{a} → {b}" for a, b in raw)
-            si_text = "; ".join(
-                f"{units.format_quantity(a, 'time', ev.system)} → "
-                f"{units.format_quantity(b, 'temperature', ev.system)}"
-                for a, b in zip(*si, strict=True)
-            )
+            shown, si_text = _profile_texts(raw, si, ev)
+        elif spec.kind == "profiles":
+            pairs = [(name, _profile_texts(raw[name], si[name], ev)) for name in raw]
+            shown = " | ".join(f"{name}: {s}" for name, (s, _) in pairs)
+            si_text = " | ".join(f"{name}: {t}" for name, (_, t) in pairs)
         elif spec.kind in ("money", "dimensionless"):
             shown, si_text = str(raw), engineering(si)
         elif spec.kind == "budget":
@@ -863,7 +928,7 @@ def _wall_charts(ev: Evaluation) -> list:
 
 
 def _shipper_charts(ev: Evaluation) -> list:
-    from workbench.studies.shipper import cost_figure, hold_figure
+    from workbench.studies.shipper import cost_figure, hold_figure, trace_figure
 
     figs = []
     currency = _currency(ev.results) or "EUR"
@@ -882,6 +947,9 @@ def _shipper_charts(ev: Evaluation) -> list:
                 title=f"Hold of {focus} at its cheapest thickness",
             )
         )
+        trace = ev.study.trace([(focus, float(r.loc[focus, "thickness"]))])
+        figs.append(trace_figure(trace, system=ev.system,
+                                 title=f"Temperatures over the trip: {focus} at its cheapest thickness"))
     return figs
 
 
@@ -954,6 +1022,21 @@ def _housing_charts(ev: Evaluation) -> list:
         yaxis_title=units.axis_label("temperature", system, "Hot-spot temperature"),
     )
     figs.append(fig)
+    from workbench.studies.housing import warm_up_figure
+
+    warm = study.warm_up_frame()
+    minutes = float(study.session_duration) / 60.0
+    contact = float(study.contact_duration)
+    contact_text = f"{contact / 60.0:.3g} min" if contact >= 60.0 else f"{contact:.3g} s"
+    figs.append(
+        warm_up_figure(
+            warm,
+            system=system,
+            title=f"Mean surface temperature over a {minutes:.3g}-min use session against the "
+            f"touch limit for a {contact_text} contact",
+            chosen=ev.chosen,
+        )
+    )
     return figs
 
 
@@ -991,7 +1074,7 @@ def _chart_html(figs: list) -> str:
     return "\n".join(parts)
 
 
-def render_html(ev: Evaluation, generated: str | None = None) -> str:
+def render_html(ev: Evaluation, generated: str | None = None, since: str = "") -> str:
     """The report page for an :class:`Evaluation` (standalone HTML, opens offline).
 
     Parameters
@@ -999,6 +1082,9 @@ def render_html(ev: Evaluation, generated: str | None = None) -> str:
     ev : Evaluation
     generated : str, optional
         Time stamp text; default: now (UTC).
+    since : str, optional
+        The "Changes since the previous review" section
+        (:func:`workbench.review.changes_since_html`), placed after the decision.
     """
     s = ev.scenario
     when = generated or _dt.datetime.now(_dt.UTC).strftime("%Y-%m-%d %H:%M UTC")
@@ -1026,9 +1112,12 @@ def render_html(ev: Evaluation, generated: str | None = None) -> str:
             f'<div class="decision"><strong>Decision:</strong> {_e(chosen)}'
             + (f"<br><strong>Why:</strong> {_e(d.rationale)}" if d.rationale else "")
             + (f"<br><strong>By:</strong> {_e(d.decided_by)}" if d.decided_by else "")
+            + (f"<br><strong>Attendees:</strong> {_e(d.attendees)}" if d.attendees else "")
             + (f"<br><strong>Date:</strong> {_e(d.date)}" if d.date else "")
             + "</div>"
         )
+    if since:
+        parts.append(since)
     parts += [
         "<h2>Cautions</h2>",
         *(f'<div class="caution">{_e(c)}</div>' for c in (*GENERAL_CAUTIONS, *ev.cautions)),
@@ -1079,19 +1168,30 @@ def write_report(
     path: str | os.PathLike,
     overwrite: bool = False,
     progress=None,
+    since: str | os.PathLike | None = None,
+    tolerance: float | str = 0.01,
 ) -> Path:
     """Evaluate (if needed), render and write the HTML report atomically.
 
     An existing file raises :class:`FileExistsError` unless ``overwrite=True``.
+    ``since`` (an earlier scenario file) adds the "Changes since the previous
+    review" section, with results compared at ``tolerance`` (relative).
     """
     ev = (
         scenario_or_eval
         if isinstance(scenario_or_eval, Evaluation)
         else evaluate(scenario_or_eval, progress)
     )
+    since_html = ""
+    if since is not None:
+        from workbench.review import changes_since_html
+
+        if progress:
+            progress(f"comparing with {since}")
+        since_html = changes_since_html(since, ev, tolerance)
     if progress:
         progress("rendering the report")
-    text = render_html(ev)
+    text = render_html(ev, since=since_html)
     path = Path(path)
     _atomic_write(path, text, overwrite=overwrite, backup=False)
     return path

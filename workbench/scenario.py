@@ -55,11 +55,32 @@ UTF-8 TOML (read with the standard library's :mod:`tomllib`)::
     chosen = "pir_32"                 # a candidate name
     rationale = "..."
     decided_by = "..."
-    date = "2026-12-01"
+    attendees = "..."                 # optional: who was in the room
+    date = "2026-12-01"               # YYYY-MM-DD
 
-Errors (syntax, a wrong type, an unknown key or id, a unit of the wrong
-dimension, a file from a newer format version, a changed materials file) raise
-:class:`ScenarioError` naming the key and the line.
+    [limits]                          # optional: raise the work limits deliberately
+    max_list_entries = 1000           # entries of a list input (thicknesses, ambient_profile)
+    max_candidates = 200              # entries of candidates
+    max_sweep_cells = 100000000       # candidates × thicknesses × time steps
+
+Errors (syntax, a wrong type, an unknown key, with a "did you mean" where one
+is close, an unknown id, a unit of the wrong dimension, a value outside its
+physical domain, a money input in another currency than the scenario's costs,
+work beyond the limits, a file from a newer format version, a changed
+materials file, and anything the study's own constructor refuses) raise
+:class:`ScenarioError` as ``file:line:column: key: why``. :func:`check_scenario`
+(``heatpath scenario check``) builds the study exactly as
+:func:`study_from_scenario` (``heatpath rank`` and ``report``) does, so it
+refuses the same files with the same messages.
+
+Currencies: costs are never converted. The candidates' materials (and a
+shipper's coolant) fix the scenario's currency; every money input
+(``rate_per_kg``, ``fixed_fee``) and every cost limit must be written in it, or
+as a bare number, which takes it.
+
+Work limits (:data:`DEFAULT_LIMITS`) are checked before anything is computed;
+the error names the key, the count and how to coarsen, and a ``[limits]``
+table raises a limit deliberately.
 
 Version 0 (the layout before the ``format`` marker) had ``job`` instead of
 ``kind``, ``units`` instead of ``display_system``, ``candidates`` as a list of
@@ -125,6 +146,10 @@ __all__ = [
     "autosave",
     "recover_last",
     "file_sha256",
+    "check_output_path",
+    "check_scenario",
+    "located_error",
+    "DEFAULT_LIMITS",
 ]
 
 FORMAT = "heatpath-scenario"
@@ -146,7 +171,23 @@ _TOP_KEYS = (
     "criteria",
     "constraints",
     "decision",
+    "limits",
 )
+
+DEFAULT_LIMITS: Mapping[str, int] = MappingProxyType(
+    {
+        "max_list_entries": 1000,
+        "max_candidates": 200,
+        "max_sweep_cells": 10**8,
+    }
+)
+"""Work limits checked before anything is computed (override in a ``[limits]`` table).
+
+``max_list_entries``: entries of any list input (``thicknesses``, ``ambient_profile``);
+``max_candidates``: entries of ``candidates``; ``max_sweep_cells``: the cells a study
+evaluates, candidates × swept thicknesses × simulated time steps (shipper:
+``ceil(duration / time_step)`` steps; wall and housing: one cell per candidate).
+"""
 
 
 class ScenarioError(ValueError):
@@ -155,18 +196,27 @@ class ScenarioError(ValueError):
     Attributes
     ----------
     problems : list of str
-        Every problem, each ``file:line: key: why`` (``line`` is ``-`` when no
-        line applies, e.g. a scenario built in Python).
+        Every problem, each ``file:line:column: key: why`` (``file:-: key: why``
+        when no line applies, e.g. a scenario built in Python).
     key : str or None
         Dotted key of the first problem, e.g. ``"inputs.t_inside"``.
     line : int or None
         Line of the first problem in the file (1-based).
+    column : int or None
+        Column of the first problem's key on that line (1-based).
     """
 
-    def __init__(self, problems: Sequence[str], key: str | None = None, line: int | None = None):
+    def __init__(
+        self,
+        problems: Sequence[str],
+        key: str | None = None,
+        line: int | None = None,
+        column: int | None = None,
+    ):
         self.problems = list(problems)
         self.key = key
         self.line = line
+        self.column = column
         if len(self.problems) == 1:
             super().__init__(self.problems[0])
         else:
@@ -226,6 +276,7 @@ class Decision:
     rationale: str = ""
     decided_by: str = ""
     date: str = ""
+    attendees: str = ""
 
 
 @dataclass(frozen=True)
@@ -236,7 +287,10 @@ class Scenario:
     build-up: ``{"name": ..., "layers": [{"material": ..., "thickness": "0.6 mm"}, ...]}``).
     ``inputs`` maps input names to text with units (booleans and plain
     choices as TOML values). ``base_dir`` (not compared) is the folder that
-    relative paths resolve against.
+    relative paths resolve against. ``limits`` overrides :data:`DEFAULT_LIMITS`.
+    ``origin`` and ``source_text`` (not compared) are the file name and text it
+    was read from, so that later errors (building the study, computing) name
+    the file, line and column of the key concerned.
     """
 
     kind: str
@@ -250,12 +304,16 @@ class Scenario:
     notes: str = ""
     decision: Decision | None = None
     base_dir: Path | None = field(default=None, compare=False, repr=False)
+    limits: Mapping[str, int] = field(default_factory=dict)
+    origin: str | None = field(default=None, compare=False, repr=False)
+    source_text: str | None = field(default=None, compare=False, repr=False)
 
     def with_decision(
-        self, chosen: str, rationale: str = "", decided_by: str = "", date: str = ""
+        self, chosen: str, rationale: str = "", decided_by: str = "", date: str = "",
+        attendees: str = "",
     ) -> Scenario:
         """A copy with the decision set."""
-        return replace(self, decision=Decision(chosen, rationale, decided_by, date))
+        return replace(self, decision=Decision(chosen, rationale, decided_by, date, attendees))
 
 
 # ---------------------------------------------------------------------------
@@ -268,7 +326,9 @@ class InputSpec:
     ``kind`` is a quantity kind of :data:`workbench.units.KINDS`, or
     ``"bool"``, ``"choice"`` (one of ``choices``), ``"text"``, or
     ``"budget"`` (a heat flux, power or U-value). ``default`` is the
-    starter-file value (``None``: optional and omitted).
+    starter-file value (``None``: optional and omitted). ``bounds`` are
+    inclusive SI bounds on top of the quantity kind's own domain (e.g. ``(0, 1)``
+    for a fraction).
     """
 
     name: str
@@ -277,6 +337,7 @@ class InputSpec:
     doc: str
     required: bool = True
     choices: tuple[str, ...] = ()
+    bounds: tuple[float | None, float | None] | None = None
 
 
 @dataclass(frozen=True)
@@ -348,7 +409,7 @@ class StudyKind:
         if self.candidate_name is not None:
             try:
                 return self.candidate_name(candidate)
-            except (ValueError, KeyError, TypeError):
+            except (ValueError, KeyError, TypeError, AttributeError):
                 pass
         return _candidate_name(candidate)
 
@@ -599,6 +660,8 @@ def _scenario_data(s: Scenario) -> dict[str, Any]:
             else:
                 cons.append({"quantity": c.quantity, c.bound: c.limit})
         data["constraints"] = cons
+    if s.limits:
+        data["limits"] = {k: int(v) for k, v in s.limits.items()}
     if s.decision is not None:
         data["decision"] = {
             "chosen": s.decision.chosen,
@@ -606,6 +669,8 @@ def _scenario_data(s: Scenario) -> dict[str, Any]:
             "decided_by": s.decision.decided_by,
             "date": s.decision.date,
         }
+        if s.decision.attendees:  # written only when set: older files keep their hash
+            data["decision"]["attendees"] = s.decision.attendees
     return data
 
 
@@ -689,6 +754,206 @@ def _line_of(text: str | None, path: Sequence[str | int]) -> int | None:
     return best
 
 
+class _Scanner:
+    """Positions of every key and array element of a TOML text (for error messages).
+
+    A small reader for text that :mod:`tomllib` has already accepted: it skips
+    values and records where each key path (``("inputs", "t_inside")``,
+    ``("candidates", 2, "layers", 0, "thickness")``) starts, as 1-based
+    ``(line, column)``. It never decides what the text means.
+    """
+
+    _BARE = re.compile(r"[A-Za-z0-9_-]+")
+
+    def __init__(self, text: str):
+        self.text = text
+        self.i = 0
+        self.pos: dict[tuple, tuple[int, int]] = {}
+        self.starts = [0] + [m.end() for m in re.finditer("\n", text)]
+        self.counts: dict[tuple, int] = {}
+
+    def at(self, i: int) -> tuple[int, int]:
+        import bisect
+
+        line = bisect.bisect_right(self.starts, i)
+        return line, i - self.starts[line - 1] + 1
+
+    def record(self, path: tuple, i: int) -> None:
+        self.pos.setdefault(path, self.at(i))
+
+    def skip_ws(self, newlines: bool) -> None:
+        t, n = self.text, len(self.text)
+        while self.i < n:
+            c = t[self.i]
+            if c in " \t\r" or (newlines and c == "\n"):
+                self.i += 1
+            elif c == "#":
+                j = t.find("\n", self.i)
+                self.i = n if j < 0 else j
+            else:
+                break
+
+    def key(self) -> list[tuple[str, int]]:
+        """A (dotted) key: its parts with their start indices."""
+        parts = []
+        t = self.text
+        while True:
+            self.skip_ws(False)
+            start = self.i
+            c = t[self.i] if self.i < len(t) else ""
+            if c == '"' or c == "'":
+                end = self.string_end()
+                raw = t[start:end]
+                try:
+                    name = tomllib.loads(f"x = {raw}")["x"]
+                except tomllib.TOMLDecodeError:
+                    name = raw.strip("\"'")
+                self.i = end
+            else:
+                m = self._BARE.match(t, self.i)
+                if not m:
+                    break
+                name = m.group(0)
+                self.i = m.end()
+            parts.append((name, start))
+            self.skip_ws(False)
+            if self.i < len(t) and t[self.i] == ".":
+                self.i += 1
+                continue
+            break
+        return parts
+
+    def string_end(self) -> int:
+        t, i = self.text, self.i
+        q = t[i]
+        if t.startswith(q * 3, i):
+            j = i + 3
+            while True:
+                k = t.find(q * 3, j)
+                if k < 0:
+                    return len(t)
+                if q == '"':
+                    b = k - 1
+                    nb = 0
+                    while b >= j and t[b] == "\\":
+                        nb += 1
+                        b -= 1
+                    if nb % 2:
+                        j = k + 1
+                        continue
+                end = k + 3
+                while end < len(t) and t[end] == q:  # up to two quotes may end the content
+                    end += 1
+                return end
+        j = i + 1
+        while j < len(t):
+            c = t[j]
+            if q == '"' and c == "\\":
+                j += 2
+                continue
+            if c == q or c == "\n":
+                return j + 1
+            j += 1
+        return j
+
+    def value(self, path: tuple) -> None:
+        t = self.text
+        self.skip_ws(False)
+        if self.i >= len(t):
+            return
+        c = t[self.i]
+        if c in "\"'":
+            self.i = self.string_end()
+        elif c == "[":
+            self.i += 1
+            idx = 0
+            while True:
+                self.skip_ws(True)
+                if self.i >= len(t) or t[self.i] == "]":
+                    self.i += 1
+                    return
+                if t[self.i] == ",":
+                    self.i += 1
+                    continue
+                self.record((*path, idx), self.i)
+                self.value((*path, idx))
+                idx += 1
+        elif c == "{":
+            self.i += 1
+            while True:
+                self.skip_ws(True)
+                if self.i >= len(t) or t[self.i] == "}":
+                    self.i += 1
+                    return
+                if t[self.i] == ",":
+                    self.i += 1
+                    continue
+                self.keyval(path)
+        else:
+            m = re.compile(r"[^,\]\}#\s]+(?:[ T][0-9:.+Z-]+)?").match(t, self.i)
+            self.i = m.end() if m else self.i + 1
+
+    def keyval(self, section: tuple) -> None:
+        parts = self.key()
+        if not parts:
+            self.i += 1
+            return
+        path = section
+        for name, start in parts:
+            path = (*path, name)
+            self.record(path, start)
+        self.skip_ws(False)
+        if self.i < len(self.text) and self.text[self.i] == "=":
+            self.i += 1
+        self.value(path)
+
+    def run(self) -> dict[tuple, tuple[int, int]]:
+        t = self.text
+        section: tuple = ()
+        while True:
+            self.skip_ws(True)
+            if self.i >= len(t):
+                return self.pos
+            if t[self.i] == "[":
+                start = self.i
+                array = t.startswith("[[", self.i)
+                self.i += 2 if array else 1
+                names = [n for n, _ in self.key()]
+                j = t.find("\n", self.i)
+                self.i = len(t) if j < 0 else j
+                name = tuple(names)
+                if array:
+                    self.counts[name] = self.counts.get(name, -1) + 1
+                    section = (*_with_parent_index(name, self.counts), self.counts[name])
+                else:
+                    section = _with_parent_index(name, self.counts)
+                self.record(section, start)
+                continue
+            self.keyval(section)
+
+
+def _positions(text: str | None) -> dict[tuple, tuple[int, int]]:
+    if not text:
+        return {}
+    try:
+        return _Scanner(text).run()
+    except Exception:  # a locator must never hide the real error; fall back to lines
+        return {}
+
+
+def _locate(text: str | None, path: Sequence[str | int]) -> tuple[int | None, int | None]:
+    """``(line, column)`` where ``path`` is written, or where its closest parent is."""
+    if not text:
+        return None, None
+    pos = _positions(text)
+    path = tuple(path)
+    for n in range(len(path), 0, -1):
+        if path[:n] in pos:
+            return pos[path[:n]]
+    line = _line_of(text, path)
+    return line, (1 if line is not None else None)
+
+
 def _key_at_line(text: str, line: int) -> str | None:
     """Dotted key written on ``line`` (or the table opened there), for syntax errors."""
     section: tuple = ()
@@ -745,27 +1010,48 @@ def _dotted(path: Sequence[str | int]) -> str:
 
 
 class _Problems:
-    """Collects problems with their keys and lines."""
+    """Collects problems with their keys, lines and columns."""
 
     def __init__(self, text: str | None, origin: str):
         self.text = text
         self.origin = origin
-        self.items: list[tuple[str, int | None, str]] = []
+        self.items: list[tuple[str, int | None, int | None, str]] = []
+        self._pos: dict[tuple, tuple[int, int]] | None = None
+
+    def locate(self, path: Sequence[str | int]) -> tuple[int | None, int | None]:
+        if not self.text:
+            return None, None
+        if self._pos is None:
+            self._pos = _positions(self.text)
+        path = tuple(path)
+        for n in range(len(path), 0, -1):
+            if path[:n] in self._pos:
+                return self._pos[path[:n]]
+        line = _line_of(self.text, path)
+        return (line, 1) if line is not None else (1, 1)  # a missing top-level key: the file
 
     def add(self, path: Sequence[str | int], why: str, line: int | None = None) -> None:
         if line is None:
-            line = _line_of(self.text, path)
-        self.items.append((_dotted(path), line, why))
+            line, col = self.locate(path)
+        else:
+            col = 1
+        key = _dotted(path)
+        head, sep, rest = why.partition(": ")
+        if sep and head and " " not in head and (key == head or key.endswith("." + head)):
+            why = rest  # "inputs.area: inputs.area: ..." says the key once
+        self.items.append((key, line, col, why))
 
     def raise_if_any(self) -> None:
         if not self.items:
             return
         msgs = [
-            f"{self.origin}:{line if line is not None else '-'}: {key}: {why}"
-            for key, line, why in self.items
+            f"{self.origin}:{line}:{col}: {key}: {why}"
+            if line is not None
+            else f"{self.origin}:-: {key}: {why}"
+            for key, line, col, why in self.items
         ]
-        key, line, _ = self.items[0]
-        raise ScenarioError(msgs, key=key, line=line)
+        key, line, col, _ = self.items[0]
+        raise ScenarioError(msgs, key=key, line=line, column=col)
 
 
 # ---------------------------------------------------------------------------
@@ -818,13 +1104,29 @@ def _describe(v: Any) -> str:
         return "a table"
     if isinstance(v, list):
         return "a list"
-    return type(v).__name__
+    if v is None:
+        return "nothing (the key is missing)"
+    return f"{type(v).__name__} {v!s}"
+
+
+def _did_you_mean(name: Any, valid: Sequence[str]) -> str:
+    """``' (did you mean 'x'?)'`` for a close valid name, else ``''``."""
+    import difflib
+
+    if not isinstance(name, str):
+        return ""
+    close = difflib.get_close_matches(name, list(valid), n=1, cutoff=0.7)
+    return f" (did you mean {close[0]!r}?)" if close else ""
+
+
+def _unknown_key_why(name: Any, valid: Sequence[str]) -> str:
+    return f"unknown key{_did_you_mean(name, valid)}; valid keys: {', '.join(valid)}"
 
 
 def _unknown_keys(data: Mapping, valid: Sequence[str], path: tuple, p: _Problems) -> None:
     for k in data:
         if k not in valid:
-            p.add((*path, k), f"unknown key; valid keys: {', '.join(valid)}")
+            p.add((*path, k), _unknown_key_why(k, valid))
 
 
 def migrate(data: dict[str, Any], version: int) -> dict[str, Any]:
@@ -967,13 +1269,27 @@ def _build(data: dict, p: _Problems, base_dir: Path | None, notes_extra: str = "
     notes = _get(data, "notes", str, (), p, default="")
     if notes_extra:
         notes = f"{notes}\n{notes_extra}".strip()
+    limits = _read_limits(data.get("limits"), p)
+    lim = {**DEFAULT_LIMITS, **limits}
     raw_inputs = _get(data, "inputs", dict, (), p, required=True, default={})
     raw_cands = _get(data, "candidates", list, (), p, required=True, default=[])
     candidates = []
+    if raw_cands and len(raw_cands) > lim["max_candidates"]:
+        p.add(("candidates",), _limit_why(len(raw_cands), "entries", "max_candidates", lim))
+        p.raise_if_any()
     for i, c in enumerate(raw_cands or []):
+        c = _renamed_ids(c, ("candidates", i), p)
         if isinstance(c, str):
             candidates.append(c)
         elif isinstance(c, dict):
+            for k in ("name", "material", "finish"):
+                if k in c and not isinstance(c[k], str):
+                    p.add(("candidates", i, k), f"expected text, got {_describe(c[k])}")
+            if "layers" in c and not isinstance(c["layers"], list):
+                p.add(
+                    ("candidates", i, "layers"),
+                    f"expected a list of layers, got {_describe(c['layers'])}",
+                )
             candidates.append(_freeze_candidate(c))
         else:
             p.add(
@@ -982,8 +1298,8 @@ def _build(data: dict, p: _Problems, base_dir: Path | None, notes_extra: str = "
     if not raw_cands and "candidates" in data:
         p.add(("candidates",), "choose at least one candidate")
     inputs = dict(raw_inputs or {})
-    if kind is not None:
-        _check_inputs(kind, inputs, p)
+    if kind is not None and isinstance(raw_inputs, dict) and "inputs" in data:
+        _check_inputs(kind, inputs, p, lim, base_dir)
     materials = _read_materials(data.get("materials"), p, base_dir)
     criteria = []
     for i, c in enumerate(_get(data, "criteria", list, (), p, default=[]) or []):
@@ -1028,13 +1344,14 @@ def _build(data: dict, p: _Problems, base_dir: Path | None, notes_extra: str = "
     decision = None
     d = _get(data, "decision", dict, (), p)
     if d is not None:
-        _unknown_keys(d, ("chosen", "rationale", "decided_by", "date"), ("decision",), p)
-        decision = Decision(
-            *(
-                _get(d, k, str, ("decision",), p, default="") or ""
-                for k in ("chosen", "rationale", "decided_by", "date")
-            )
-        )
+        keys = ("chosen", "rationale", "decided_by", "date", "attendees")
+        _unknown_keys(d, keys, ("decision",), p)
+        decision = Decision(*(_get(d, k, str, ("decision",), p, default="") or "" for k in keys))
+        if decision.chosen:
+            renamed = _renamed_ids(decision.chosen, ("decision", "chosen"), p)
+            decision = replace(decision, chosen=renamed)
+        if decision.date and not _is_iso_date(decision.date):
+            p.add(("decision", "date"), f"expected a date YYYY-MM-DD, got {decision.date!r}")
     p.raise_if_any()
     scenario = Scenario(
         kind=kind_name,
@@ -1048,10 +1365,99 @@ def _build(data: dict, p: _Problems, base_dir: Path | None, notes_extra: str = "
         notes=notes,
         decision=decision,
         base_dir=base_dir,
+        limits=limits,
+        origin=p.origin,
+        source_text=p.text,
     )
     _check_against_materials(scenario, kind, p)
     p.raise_if_any()
     return scenario
+
+
+def _read_limits(raw: Any, p: _Problems) -> dict[str, int]:
+    if raw is None:
+        return {}
+    if not isinstance(raw, Mapping):
+        p.add(("limits",), f"expected a table, got {_describe(raw)}")
+        return {}
+    _unknown_keys(raw, tuple(DEFAULT_LIMITS), ("limits",), p)
+    out = {}
+    for k, v in raw.items():
+        if k not in DEFAULT_LIMITS:
+            continue
+        if not isinstance(v, int) or isinstance(v, bool) or v < 1:
+            p.add(("limits", k), f"expected a whole number >= 1, got {_describe(v)}")
+            continue
+        out[k] = v
+    return out
+
+
+def _limits_of(scenario: Scenario) -> dict[str, int]:
+    """Effective limits of a scenario (its overrides over :data:`DEFAULT_LIMITS`)."""
+    p = _Problems(scenario.source_text, scenario.origin or "<scenario>")
+    limits = _read_limits(dict(scenario.limits or {}), p)
+    p.raise_if_any()
+    return {**DEFAULT_LIMITS, **limits}
+
+
+def _limit_why(count: int | float, what: str, name: str, lim: Mapping[str, int]) -> str:
+    hint = {
+        "max_list_entries": "use fewer, wider-spaced entries",
+        "max_candidates": "compare fewer candidates at a time",
+        "max_sweep_cells": "use fewer candidates or thicknesses, or a coarser time_step or a "
+        "shorter duration",
+    }[name]
+
+    def num(x: int | float) -> str:
+        return f"{int(x)}" if float(x).is_integer() and abs(x) < 1e9 else f"{float(x):.3g}"
+
+    return (
+        f"{num(count)} {what} exceed the limit of {num(lim[name])} ({name}); {hint}, or raise "
+        f"the limit deliberately with [limits] {name} = N in the scenario file"
+    )
+
+
+def _is_iso_date(text: str) -> bool:
+    import datetime
+
+    if not re.fullmatch(r"\d{4}-\d{2}-\d{2}", text):
+        return False
+    try:
+        datetime.date.fromisoformat(text)
+    except ValueError:
+        return False
+    return True
+
+
+def _renamed_ids(c: Any, path: tuple, p: _Problems) -> Any:
+    """A candidate with every renamed (deprecated) material id replaced by its new id.
+
+    :func:`workbench.materials.resolve_material_id` warns, naming the new id and the
+    file:line:column, so a saved scenario still opens and the next save writes the new id.
+    """
+    from workbench.materials import DEPRECATED_IDS, resolve_material_id
+
+    def where(sub: tuple) -> str:
+        line, col = p.locate((*path, *sub))
+        return f"{p.origin}:{line}:{col}" if line is not None else p.origin
+
+    if isinstance(c, str):
+        return resolve_material_id(c, where=where(())) if c in DEPRECATED_IDS else c
+    if not isinstance(c, dict):
+        return c
+    out = dict(c)
+    if isinstance(out.get("material"), str) and out["material"] in DEPRECATED_IDS:
+        out["material"] = resolve_material_id(out["material"], where=where(("material",)))
+    if isinstance(out.get("layers"), list):
+        layers = []
+        for j, lay in enumerate(out["layers"]):
+            if isinstance(lay, dict) and isinstance(lay.get("material"), str) \
+                    and lay["material"] in DEPRECATED_IDS:
+                lay = {**lay, "material": resolve_material_id(
+                    lay["material"], where=where(("layers", j, "material")))}
+            layers.append(lay)
+        out["layers"] = layers
+    return out
 
 
 def _freeze_candidate(c: dict) -> dict:
@@ -1061,13 +1467,17 @@ def _freeze_candidate(c: dict) -> dict:
     }
 
 
-def _check_inputs(kind: StudyKind, inputs: dict, p: _Problems) -> None:
+def _check_inputs(
+    kind: StudyKind, inputs: dict, p: _Problems, limits: Mapping[str, int] = DEFAULT_LIMITS,
+    base_dir: Path | None = None,
+) -> None:
     valid = [s.name for s in kind.inputs]
     for name in inputs:
         if name not in valid:
             p.add(
                 ("inputs", name),
-                f"unknown input for a {kind.name} study; valid: {', '.join(valid)}",
+                f"unknown input for a {kind.name} study{_did_you_mean(name, valid)}; "
+                f"valid: {', '.join(valid)}",
             )
     for spec in kind.inputs:
         if spec.name not in inputs:
@@ -1075,17 +1485,106 @@ def _check_inputs(kind: StudyKind, inputs: dict, p: _Problems) -> None:
                 p.add(
                     ("inputs", spec.name),
                     f"missing required input ({spec.doc}; e.g. {_starter_value(spec)})",
-                    line=_line_of(p.text, ("inputs",)),
                 )
             continue
         try:
-            _parse_input(spec, inputs[spec.name])
+            _parse_input(spec, inputs[spec.name], limits, base_dir)
+        except _ElementError as exc:
+            p.add(("inputs", spec.name, *exc.path), str(exc))
         except (ValueError, TypeError) as exc:
             p.add(("inputs", spec.name), str(exc))
 
 
-def _parse_input(spec: InputSpec, value: Any):
+class _ElementError(ValueError):
+    """A problem with one element of a list input (``path`` below the input's key)."""
+
+    def __init__(self, path: tuple, message: str):
+        super().__init__(message)
+        self.path = path
+
+
+def _element(path: tuple, fn: Callable[[], Any]) -> Any:
+    try:
+        return fn()
+    except (ValueError, TypeError) as exc:
+        raise _ElementError(path, str(exc)) from None
+
+
+def _profile_file(value: dict, field_name: str, base_dir: Path | None):
+    """A logger file named in a scenario: ``{ file = "route.csv", sha256 = "..." }``.
+
+    The path resolves against the scenario's folder; a ``sha256`` that no longer
+    matches the file's bytes is refused (the file changed since the scenario
+    recorded it). Returns ``(times [s], temperatures [K])`` as lists.
+    """
+    from workbench.logger import load_ambient_profile
+
+    extra = sorted(set(value) - {"file", "sha256"})
+    if extra:
+        raise ValueError(f"{field_name}: unknown key {extra[0]!r}; valid: file, sha256")
+    name = value.get("file")
+    if not isinstance(name, str) or not name.strip():
+        raise ValueError(f'{field_name}.file: expected the logger file\'s name, e.g. "route.csv"')
+    target = _resolve_path(name, base_dir)
+    if not target.is_file():
+        raise ValueError(f"{field_name}.file: no such logger file {str(target)!r}")
+    recorded = value.get("sha256")
+    if recorded is not None:
+        if not isinstance(recorded, str):
+            raise ValueError(f"{field_name}.sha256: expected text, got {_describe(recorded)}")
+        actual = file_sha256(target)
+        if recorded != actual:
+            raise ValueError(
+                f"{field_name}.sha256: {name} has changed since this scenario recorded it "
+                f"(recorded {recorded[:12]}…, now {actual[:12]}…); check the file, then remove "
+                "the sha256 line or save the scenario again to record the new one"
+            )
+    times, temps = load_ambient_profile(target)
+    return [float(t) for t in times], [float(t) for t in temps]
+
+
+def _parse_profile(value: Any, field_name: str, base_dir: Path | None):
+    """One ambient profile: a list of [time, temperature] rows, or a logger file table."""
+    if isinstance(value, dict):
+        return _profile_file(value, field_name, base_dir)
+    if (
+        not isinstance(value, list)
+        or len(value) < 1
+        or not all(isinstance(v, list) and len(v) == 2 for v in value)
+    ):
+        raise ValueError(
+            "expected a list of [time, temperature] pairs such as "
+            '[["0 h", "25 °C"], ["12 h", "30 °C"]], or a logger file: { file = "route.csv" }'
+        )
+    times = [
+        _element((i, 0), lambda v=v, i=i: _quantity(v[0], "time", f"{field_name}[{i}][0]"))
+        for i, v in enumerate(value)
+    ]
+    temps = [
+        _element(
+            (i, 1), lambda v=v, i=i: _quantity(v[1], "temperature", f"{field_name}[{i}][1]")
+        )
+        for i, v in enumerate(value)
+    ]
+    for i in range(1, len(times)):
+        if not times[i] > times[i - 1]:
+            raise _ElementError(
+                (i, 0),
+                f"{field_name}[{i}][0]: times must increase strictly from row to row "
+                f"(row {i} is not after row {i - 1}); sort the rows and remove duplicates",
+            )
+    if times[0] != 0.0:
+        raise _ElementError(
+            (0, 0), f'{field_name}[0][0]: the profile must start at "0 h" (the packing time)'
+        )
+    return (times, temps)
+
+
+def _parse_input(spec: InputSpec, value: Any, limits: Mapping[str, int] = DEFAULT_LIMITS,
+                 base_dir: Path | None = None):
     field_name = f"inputs.{spec.name}"
+    if isinstance(value, list) and len(value) > limits["max_list_entries"]:
+        raise ValueError(_limit_why(len(value), "entries", "max_list_entries", limits))
     if spec.kind == "bool":
         if not isinstance(value, bool):
             raise ValueError(f"expected true/false, got {_describe(value)}")
@@ -1101,24 +1600,31 @@ def _parse_input(spec: InputSpec, value: Any):
             raise ValueError(
                 f'expected a list of thicknesses such as ["10 mm", "20 mm"], got {_describe(value)}'
             )
-        return [_quantity(v, "thickness", f"{field_name}[{i}]") for i, v in enumerate(value)]
-    if spec.kind == "profile":
-        if (
-            not isinstance(value, list)
-            or len(value) < 1
-            or not all(isinstance(v, list) and len(v) == 2 for v in value)
-        ):
-            raise ValueError(
-                "expected a list of [time, temperature] pairs such as "
-                '[["0 h", "25 °C"], ["12 h", "30 °C"]]'
-            )
-        times = [_quantity(v[0], "time", f"{field_name}[{i}][0]") for i, v in enumerate(value)]
-        temps = [
-            _quantity(v[1], "temperature", f"{field_name}[{i}][1]") for i, v in enumerate(value)
+        return [
+            _element((i,), lambda v=v, i=i: _quantity(v, "thickness", f"{field_name}[{i}]"))
+            for i, v in enumerate(value)
         ]
-        return (times, temps)
+    if spec.kind == "profile":
+        return _parse_profile(value, field_name, base_dir)
+    if spec.kind == "profiles":
+        if not isinstance(value, dict) or not value:
+            raise ValueError(
+                'expected named profiles such as { summer = { file = "summer.csv" }, '
+                'winter = [["0 h", "-5 °C"], ["12 h", "0 °C"]] }'
+            )
+        if len(value) > limits["max_list_entries"]:
+            raise ValueError(_limit_why(len(value), "entries", "max_list_entries", limits))
+        out = {}
+        for name, prof in value.items():
+            try:
+                out[name] = _parse_profile(prof, f"{field_name}.{name}", base_dir)
+            except _ElementError as exc:
+                raise _ElementError((name, *exc.path), str(exc)) from None
+            except (ValueError, TypeError) as exc:
+                raise _ElementError((name,), str(exc)) from None
+        return out
     if spec.kind in ("money", "dimensionless"):
-        return _quantity(value, spec.kind, field_name)
+        return _quantity(value, spec.kind, field_name, spec.bounds)
     if not isinstance(value, str):
         raise ValueError(
             f"expected text with a unit (e.g. {_starter_value(spec)}), got {_describe(value)}"
@@ -1130,16 +1636,21 @@ def _parse_input(spec: InputSpec, value: Any):
             ("u_value", "u_value"),
         ):
             try:
-                return budget_kind, units.parse(value, kind_name, field_name)
+                budget = units.parse(value, kind_name, field_name)
             except units.UnitError:
                 continue
+            if not budget > 0:
+                raise ValueError(
+                    f'"{value}": a heat budget must be > 0 {units.display_unit(kind_name)}'
+                )
+            return budget_kind, budget
         raise ValueError(
             f'"{value}" is not a heat budget; expected a heat flux such as "8 W/m²", '
             'a power such as "20 W" or a U-value such as "0.25 W/(m²·K)"'
         )
     if units.check_kind(spec.kind).is_cost:
         return units.parse_cost(value, spec.kind, field_name)[0]
-    return units.parse(value, spec.kind, field_name)
+    return units.parse(value, spec.kind, field_name, bounds=spec.bounds)
 
 
 def parse_inputs(scenario: Scenario) -> dict[str, Any]:
@@ -1149,13 +1660,122 @@ def parse_inputs(scenario: Scenario) -> dict[str, Any]:
     are ``None``; missing required ones raise :class:`ScenarioError`.
     """
     kind = study_kind(scenario.kind)
-    p = _Problems(None, "<scenario>")
-    _check_inputs(kind, dict(scenario.inputs), p)
+    limits = _limits_of(scenario)
+    p = _problems_of(scenario)
+    _check_inputs(kind, dict(scenario.inputs), p, limits, scenario.base_dir)
     p.raise_if_any()
     return {
-        s.name: (_parse_input(s, scenario.inputs[s.name]) if s.name in scenario.inputs else None)
+        s.name: (
+            _parse_input(s, scenario.inputs[s.name], limits, scenario.base_dir)
+            if s.name in scenario.inputs
+            else None
+        )
         for s in kind.inputs
     }
+
+
+def _problems_of(scenario: Scenario) -> _Problems:
+    """A problem collector that names the scenario's file, line and column."""
+    return _Problems(scenario.source_text, scenario.origin or "<scenario>")
+
+
+# -- currencies ----------------------------------------------------------------
+_CODE = re.compile(
+    r"(?<![A-Za-z])(" + "|".join(units.CURRENCIES) + r")(?![A-Za-z])|([€£$])", re.IGNORECASE
+)
+
+
+def _codes_in(value: Any) -> set[str]:
+    """Currency codes written in a money or cost input (``€``/``£`` read as EUR/GBP)."""
+    if not isinstance(value, str):
+        return set()
+    out = set()
+    for m in _CODE.finditer(value):
+        out.add(
+            m.group(1).upper() if m.group(1) else {"€": "EUR", "£": "GBP", "$": "$"}[m.group(2)]
+        )
+    return out
+
+
+def _candidate_ids(c: Any) -> list[str]:
+    if isinstance(c, str):
+        return [c]
+    if not isinstance(c, Mapping):
+        return []
+    ids = [c["material"]] if isinstance(c.get("material"), str) else []
+    for lay in c.get("layers") or []:
+        if isinstance(lay, Mapping) and isinstance(lay.get("material"), str):
+            ids.append(lay["material"])
+    return ids
+
+
+def _scenario_currency(s: Scenario, kind: StudyKind, materials, p: _Problems) -> str | None:
+    """The one currency of the costs a study adds up, or None when no cost is known.
+
+    The candidates' materials with a cost, and (shipper) the coolant, must all be
+    in one currency; several raise a problem (costs are never converted).
+    """
+    import numpy as np
+
+    found: dict[str, list[str]] = {}
+    if "currency" in getattr(materials, "columns", ()):
+        for c in s.candidates:
+            for mid in _candidate_ids(c):
+                if mid not in materials.index:
+                    continue
+                row = materials.loc[mid]
+                cost = row.get("cost_per_volume", np.nan)
+                code = row.get("currency")
+                if isinstance(code, str) and code.strip() and np.isfinite(float(cost)):
+                    found.setdefault(code.strip(), []).append(f"material {mid!r}")
+    if kind.name == "shipper" and isinstance(s.inputs.get("coolant"), str):
+        from workbench.coolants import load_coolants
+
+        cool = load_coolants()
+        cid = s.inputs["coolant"]
+        if cid in cool.index and isinstance(cool.loc[cid].get("currency"), str):
+            found.setdefault(str(cool.loc[cid, "currency"]).strip(), []).append(f"coolant {cid!r}")
+    if len(found) > 1:
+        detail = "; ".join(f"{code}: {', '.join(sorted(set(w)))}" for code, w in found.items())
+        p.add(
+            ("candidates",),
+            f"the costs this study adds up are in several currencies ({detail}); costs are "
+            "never converted between currencies: give every cost in one currency",
+        )
+        return None
+    return next(iter(found), None)
+
+
+def _check_money(s: Scenario, kind: StudyKind, materials, p: _Problems) -> None:
+    """Every money input and cost limit must be in the scenario's currency (no conversion)."""
+    code = _scenario_currency(s, kind, materials, p)
+    money: list[tuple[tuple, Any]] = []
+    for spec in kind.inputs:
+        if spec.name in s.inputs and (
+            spec.kind == "money"
+            or (spec.kind in units.KINDS and units.check_kind(spec.kind).is_cost)
+        ):
+            money.append((("inputs", spec.name), s.inputs[spec.name]))
+    for i, c in enumerate(s.constraints):
+        if c.bound in ("max", "min") and c.quantity in kind.column_kinds:
+            qk = kind.column_kinds[c.quantity]
+            if qk is None or units.check_kind(qk).is_cost:
+                money.append((("constraints", i, c.bound), c.limit))
+    for path, value in money:
+        codes = _codes_in(value)
+        if "$" in codes:
+            p.add(path, f'"{value}": "$" is ambiguous; write a currency code such as USD')
+            continue
+        if len(codes) > 1:
+            p.add(path, f'"{value}" mixes currencies {sorted(codes)}; costs are not converted')
+            continue
+        if code is not None and codes and codes != {code}:
+            p.add(
+                path,
+                f'"{value}" is in {codes.pop()}, but this scenario\'s costs (materials'
+                f"{', coolant' if kind.name == 'shipper' else ''}) are in {code}; costs are "
+                f"never converted between currencies: give this amount in {code}",
+            )
 
 
 def _check_constraint(kind: StudyKind, spec: ConstraintSpec, path: tuple, p: _Problems) -> None:
@@ -1408,7 +2028,8 @@ def _check_against_materials(s: Scenario, kind: StudyKind | None, p: _Problems) 
         return
     for i, key, why in kind.check_candidates(s.candidates, materials):
         path: tuple = ("candidates", i) if not key else ("candidates", i, *_undotted(key))
-        p.add(path, why, line=_line_of(p.text, ("candidates", i)))
+        p.add(path, why)
+    _check_money(s, kind, materials, p)
     if s.decision is not None and s.decision.chosen:
         names = [kind.name_of(c) for c in s.candidates]
         if s.decision.chosen not in names:
@@ -1438,10 +2059,61 @@ def _check_scenario_object(s: Scenario) -> None:
 # ---------------------------------------------------------------------------
 # Files
 # ---------------------------------------------------------------------------
+def check_output_path(path: str | os.PathLike, overwrite: bool, option: str = "") -> Path:
+    """Check that ``path`` may be written: absent, or a regular file and ``overwrite``.
+
+    A FIFO, a device node, a socket, a directory or a symbolic link is refused
+    even with ``overwrite`` (replacing it would replace the special file itself,
+    or write somewhere else than named); so is a path whose folder does not exist.
+
+    Raises
+    ------
+    FileExistsError
+        A regular file exists and ``overwrite`` is false.
+    ValueError
+        Not a regular file, or no such folder; the message names ``option``.
+    """
+    import stat
+
+    path = Path(path)
+    where = f"{option}: " if option else ""
+    try:
+        st = os.lstat(path)
+    except FileNotFoundError:
+        folder = path.parent if str(path.parent) else Path(".")
+        if not folder.is_dir():
+            raise ValueError(f"{where}{path}: folder {folder} does not exist") from None
+        return path
+    mode = st.st_mode
+    if stat.S_ISLNK(mode):
+        what = "a symbolic link"
+    elif stat.S_ISDIR(mode):
+        what = "a directory"
+    elif stat.S_ISFIFO(mode):
+        what = "a FIFO (named pipe)"
+    elif stat.S_ISCHR(mode) or stat.S_ISBLK(mode):
+        what = "a device node"
+    elif stat.S_ISSOCK(mode):
+        what = "a socket"
+    elif stat.S_ISREG(mode):
+        if not overwrite:
+            raise FileExistsError(
+                f"{where}{path} exists; use --force (overwrite=True) to replace it"
+            )
+        return path
+    else:  # pragma: no cover - no other file types on POSIX
+        what = "not a regular file"
+    raise ValueError(
+        f"{where}{path} is {what}; heatpath writes only regular files and never replaces "
+        "a special file or a link, even with --force; choose another output name"
+    )
+
+
 def _atomic_write(path: Path, text: str, overwrite: bool, backup: bool = True) -> None:
     path = Path(path)
-    if path.exists() and not overwrite:
+    if os.path.lexists(path) and not overwrite:
         raise FileExistsError(f"{path} exists; pass overwrite=True to replace it (a .bak is kept)")
+    check_output_path(path, overwrite)
     folder = path.parent if str(path.parent) else Path(".")
     fd, tmp = tempfile.mkstemp(prefix=f".{path.name}.", suffix=".tmp", dir=folder)
     try:
@@ -1489,6 +2161,24 @@ def _replace_bytes(path: Path, data: bytes) -> None:
         raise
 
 
+def _pin_profile_files(scenario: Scenario) -> Scenario:
+    """Record the sha256 of every logger file an ambient profile names (where not yet recorded)."""
+
+    def pinned(prof):
+        if isinstance(prof, Mapping) and "file" in prof and "sha256" not in prof:
+            target = _resolve_path(str(prof["file"]), scenario.base_dir)
+            if target.is_file():
+                return {**prof, "sha256": file_sha256(target)}
+        return prof
+
+    inputs = dict(scenario.inputs)
+    if "ambient_profile" in inputs:
+        inputs["ambient_profile"] = pinned(inputs["ambient_profile"])
+    if isinstance(inputs.get("ambient_profiles"), Mapping):
+        inputs["ambient_profiles"] = {k: pinned(v) for k, v in inputs["ambient_profiles"].items()}
+    return scenario if inputs == dict(scenario.inputs) else replace(scenario, inputs=inputs)
+
+
 def save_scenario(scenario: Scenario, path: str | os.PathLike, overwrite: bool = False) -> Path:
     """Write a scenario file atomically.
 
@@ -1508,6 +2198,7 @@ def save_scenario(scenario: Scenario, path: str | os.PathLike, overwrite: bool =
         The file written.
     """
     path = Path(path)
+    scenario = _pin_profile_files(scenario)
     text = scenario_to_text(scenario)
     # the written file must load back to the same scenario; check before touching the disk
     back = scenario_from_text(text, str(path), scenario.base_dir)
@@ -1559,13 +2250,121 @@ def study_from_scenario(scenario: Scenario):
     """Build the study object a scenario describes (a :class:`WallStudy`, ...)."""
     _check_scenario_object(scenario)
     kind = study_kind(scenario.kind)
+    limits = _limits_of(scenario)
     inputs_si = parse_inputs(scenario)
     materials, curves, _ = materials_for(scenario)
-    p = _Problems(None, "<scenario>")
+    p = _problems_of(scenario)
+    if len(scenario.candidates) > limits["max_candidates"]:
+        p.add(
+            ("candidates",),
+            _limit_why(len(scenario.candidates), "entries", "max_candidates", limits),
+        )
+        p.raise_if_any()
     for i, key, why in kind.check_candidates(scenario.candidates, materials):
         p.add(("candidates", i) if not key else ("candidates", i, *_undotted(key)), why)
+    _check_money(scenario, kind, materials, p)
     p.raise_if_any()
-    return kind.build(scenario, inputs_si, materials, curves)
+    _check_work(scenario, kind, inputs_si, limits, p)
+    p.raise_if_any()
+    try:
+        return kind.build(scenario, inputs_si, materials, curves)
+    except ScenarioError:
+        raise
+    except (ValueError, TypeError) as exc:
+        raise located_error(scenario, exc) from None
+
+
+def check_scenario(scenario: Scenario):
+    """Check a scenario as fully as running it would, without computing: build its study.
+
+    Everything :func:`study_from_scenario` (and so ``heatpath rank`` and
+    ``heatpath report``) would refuse is refused here with the same message:
+    keys, units, physical domains, currencies, materials, work limits and the
+    study's own input checks, each named with the file, line and column of the
+    key concerned. Returns the study.
+    """
+    return study_from_scenario(scenario)
+
+
+def _check_work(
+    s: Scenario, kind: StudyKind, x: Mapping[str, Any], limits: Mapping[str, int], p: _Problems
+) -> None:
+    """Refuse, before computing, a study larger than ``limits["max_sweep_cells"]``."""
+    n_cand = len(s.candidates)
+    if kind.name != "shipper":
+        cells, detail, path = n_cand, f"{n_cand} candidates", ("candidates",)
+    else:
+        thk = x.get("thicknesses") or []
+        duration, step = x.get("duration"), x.get("time_step")
+        if duration is None or step is None or not step > 0 or not duration > 0:
+            return  # the study's own checks name these
+        steps = math.ceil(duration / step)
+        cells = n_cand * len(thk) * steps
+        detail = (
+            f"{n_cand} candidates × {len(thk)} thicknesses × {steps:.3g} time steps "
+            f"(duration / time_step) = {cells:.3g} cells"
+        )
+        path = ("inputs", "duration")
+    if cells > limits["max_sweep_cells"]:
+        p.add(path, _limit_why(cells, "cells", "max_sweep_cells", limits) + f" [{detail}]")
+
+
+def _path_for_message(s: Scenario, kind: StudyKind, message: str) -> tuple:
+    """The scenario key a study's ``ValueError`` concerns (its message starts with the name)."""
+    inputs = [spec.name for spec in kind.inputs]
+    head = message.split(":", 1)[0] if ":" in message else message
+    quoted = re.findall(r"'([^']*)'", head)
+
+    def candidate_path() -> tuple:
+        names = [kind.name_of(c) for c in s.candidates]
+        for q in quoted:
+            for i, c in enumerate(s.candidates):
+                if q == names[i] or q in _candidate_ids(c):
+                    return ("candidates", i)
+        return ("candidates",)
+
+    for part in re.split(r",\s*", head):
+        word = part.strip()
+        key = re.sub(r"\s+", "_", word.split(" (")[0])
+        first = key.split("_times")[0].split("_temperatures")[0]
+        if word.startswith(("candidate", "thickness of", "finish", "layers")):
+            return candidate_path()
+        if word.startswith(("heat budget", "budget")) and "budget" in inputs:
+            return ("inputs", "budget")
+        for name in (key, first, word.split(" ")[0]):
+            if name in inputs:
+                if (
+                    name == "t_ambient"
+                    and "t_ambient" not in s.inputs
+                    and "ambient_profile" in s.inputs
+                ):
+                    return ("inputs", "ambient_profile")
+                if name not in s.inputs and name == "t_ambient":
+                    return ("inputs",)
+                return ("inputs", name)
+    for name in inputs:
+        if re.search(rf"(?<![A-Za-z_]){re.escape(name)}(?![A-Za-z_])", message):
+            return ("inputs", name)
+    return ("inputs",)
+
+
+def located_error(scenario: Scenario, exc: BaseException) -> ScenarioError:
+    """A study's ``ValueError``/``TypeError`` as a :class:`ScenarioError` at the key concerned.
+
+    The message is kept; the key is the input (or candidate) its message names,
+    located in the scenario's file (``file:line:column: key: message``).
+    """
+    if isinstance(exc, ScenarioError):
+        return exc
+    kind = study_kind(scenario.kind)
+    p = _problems_of(scenario)
+    path = _path_for_message(scenario, kind, str(exc))
+    p.add(path, str(exc))
+    try:
+        p.raise_if_any()
+    except ScenarioError as err:
+        return err
+    raise AssertionError("unreachable")  # pragma: no cover
 
 
 def scenario_from_study(
@@ -1642,6 +2441,7 @@ def snapshot(
     rationale: str = "",
     decided_by: str = "",
     date: str = "",
+    attendees: str = "",
 ) -> Scenario:
     """The scenario of a study as shown in the workbench (for its Save button and autosave).
 
@@ -1653,7 +2453,7 @@ def snapshot(
         names = [str(n) for n in getattr(study, "names", [])]
         if names and chosen not in names:
             raise ValueError(f"chosen: unknown candidate {chosen!r}; valid: {names}")
-        decision = Decision(chosen, rationale, decided_by, date)
+        decision = Decision(chosen, rationale, decided_by, date, attendees)
     return scenario_from_study(
         study,
         title=title,
@@ -1738,6 +2538,7 @@ def starter_text(kind_name: str) -> str:
         f'# chosen = "{kind.name_of(kind.starter_candidates[0])}"',
         '# rationale = "..."',
         '# decided_by = "..."',
+        '# attendees = "..."',
         '# date = "YYYY-MM-DD"',
     ]
     return "\n".join(out) + "\n"
@@ -1818,6 +2619,11 @@ def _wall_kind() -> StudyKind:
 
     def build(scenario: Scenario, x: dict, materials, curves):
         budget = None if x["budget"] is None else HeatBudget(*x["budget"])
+        if budget is not None and x["t_inside"] == x["t_outside"]:
+            raise ValueError(
+                "t_outside: equal to t_inside; equal temperatures carry no heat, so a heat "
+                "budget sizes nothing (remove the budget or change a temperature)"
+            )
         return WallStudy(
             [to_candidate(c) for c in scenario.candidates],
             materials,
@@ -1877,9 +2683,9 @@ def _wall_kind() -> StudyKind:
                 ids = [("", c)]
                 names.append(c)
             else:
-                extra = set(c) - {"name", "layers"}
-                if extra:
-                    problems.append((i, sorted(extra)[0], "unknown key; valid keys: name, layers"))
+                for k in c:
+                    if k not in ("name", "layers"):
+                        problems.append((i, k, _unknown_key_why(k, ("name", "layers"))))
                 layers = c.get("layers")
                 if not isinstance(layers, list) or not layers:
                     problems.append((i, "layers", "expected a list of {material, thickness}"))
@@ -1887,6 +2693,15 @@ def _wall_kind() -> StudyKind:
                 ids = []
                 sized = 0
                 for j, lay in enumerate(layers):
+                    for k in lay if isinstance(lay, dict) else ():
+                        if k not in ("material", "thickness"):
+                            problems.append(
+                                (
+                                    i,
+                                    f"layers[{j}].{k}",
+                                    _unknown_key_why(k, ("material", "thickness")),
+                                )
+                            )
                     if not isinstance(lay, dict) or not isinstance(lay.get("material"), str):
                         problems.append(
                             (
@@ -1903,9 +2718,7 @@ def _wall_kind() -> StudyKind:
                         sized += 1
                     else:
                         try:
-                            _parse_input(
-                                InputSpec("thickness", "thickness", "", ""), lay["thickness"]
-                            )
+                            _quantity(lay["thickness"], "thickness", "thickness")
                         except ValueError as exc:
                             problems.append((i, f"layers[{j}].thickness", str(exc)))
                 if sized != 1:
@@ -2049,19 +2862,23 @@ def _money(text: Any, field_name: str) -> float:
         )
     if not math.isfinite(value):
         raise ValueError(f"{field_name}: must be finite")
+    if value < 0:
+        raise ValueError(f'{field_name}: "{text}" is negative; a sum of money must be >= 0')
     return value
 
 
-def _quantity(value: Any, qkind: str, field_name: str) -> float:
+def _quantity(
+    value: Any, qkind: str, field_name: str, bounds: tuple[float | None, float | None] | None = None
+) -> float:
     if qkind == "money":
         return _money(value, field_name)
     if qkind == "dimensionless" and isinstance(value, (int, float)) and not isinstance(value, bool):
-        return float(value)
+        return units.parse(float(value), "dimensionless", field_name, bounds=bounds)
     if not isinstance(value, str):
         raise ValueError(f"{field_name}: expected text with a unit, got {_describe(value)}")
     if units.check_kind(qkind).is_cost:
         return units.parse_cost(value, qkind, field_name)[0]
-    return units.parse(value, qkind, field_name)
+    return units.parse(value, qkind, field_name, bounds=bounds)
 
 
 _AIR_KEYS = ("air_layer", "direction", "emissivity_1", "emissivity_2", "method", "height", "name")
@@ -2092,16 +2909,17 @@ def _check_layer_list(i: int, c: Mapping, known: set, problems: list, allow_spec
             spec = {"air_layer": "thickness", "height": "length"}
             for k, v in lay.items():
                 if k not in _AIR_KEYS:
-                    problems.append(
-                        (i, f"{key}.{k}", f"unknown key; valid: {', '.join(_AIR_KEYS)}")
-                    )
+                    problems.append((i, f"{key}.{k}", _unknown_key_why(k, _AIR_KEYS)))
                 elif k in spec:
                     _collect(
                         problems, i, f"{key}.{k}", lambda v=v, k=k, q=spec[k]: _quantity(v, q, k)
                     )
                 elif k in ("emissivity_1", "emissivity_2"):
                     _collect(
-                        problems, i, f"{key}.{k}", lambda v=v, k=k: _quantity(v, "dimensionless", k)
+                        problems,
+                        i,
+                        f"{key}.{k}",
+                        lambda v=v, k=k: _quantity(v, "dimensionless", k, units.EMISSIVITY),
                     )
             if "direction" not in lay:
                 problems.append((i, f"{key}.direction", 'missing: "up", "horizontal" or "down"'))
@@ -2116,9 +2934,7 @@ def _check_layer_list(i: int, c: Mapping, known: set, problems: list, allow_spec
             }
             for k, v in lay.items():
                 if k not in _VIP_KEYS:
-                    problems.append(
-                        (i, f"{key}.{k}", f"unknown key; valid: {', '.join(_VIP_KEYS)}")
-                    )
+                    problems.append((i, f"{key}.{k}", _unknown_key_why(k, _VIP_KEYS)))
                 elif k in spec:
                     _collect(
                         problems, i, f"{key}.{k}", lambda v=v, k=k, q=spec[k]: _quantity(v, q, k)
@@ -2134,12 +2950,12 @@ def _check_layer_list(i: int, c: Mapping, known: set, problems: list, allow_spec
                         )
                     )
             continue
-        extra = set(lay) - {"material", "thickness"}
-        if extra:
-            valid = "material, thickness" + (
-                " (or air_layer ..., vacuum_panel ...)" if allow_special else ""
-            )
-            problems.append((i, f"{key}.{sorted(extra)[0]}", f"unknown key; valid: {valid}"))
+        for k in lay:
+            if k not in ("material", "thickness"):
+                why = _unknown_key_why(k, ("material", "thickness"))
+                if allow_special:
+                    why += " (or an air_layer or vacuum_panel table)"
+                problems.append((i, f"{key}.{k}", why))
         if not isinstance(lay.get("material"), str):
             problems.append(
                 (
@@ -2247,7 +3063,7 @@ def _shipper_kind() -> StudyKind:
             }
             for k in ("emissivity_1", "emissivity_2"):
                 if k in lay:
-                    kw[k] = _quantity(lay[k], "dimensionless", k)
+                    kw[k] = _quantity(lay[k], "dimensionless", k, units.EMISSIVITY)
             if "method" in lay:
                 kw["method"] = lay["method"]
             if "height" in lay:
@@ -2283,16 +3099,19 @@ def _shipper_kind() -> StudyKind:
         kw["t_payload_min"] = x.get("t_payload_min")
         kw["t_payload_max"] = x.get("t_payload_max")
         kw["t_coolant_start"] = x.get("t_coolant_start")
-        if (x.get("ambient_profile") is None) == (x.get("t_ambient") is None):
-            raise ScenarioError(
-                [
-                    "<scenario>:-: inputs.t_ambient: give either t_ambient (a "
-                    "constant) or ambient_profile (steps), not both or neither"
-                ],
-                key="inputs.t_ambient",
+        given = [k for k in ("t_ambient", "ambient_profile", "ambient_profiles")
+                 if x.get(k) is not None]
+        if len(given) != 1:
+            raise ValueError(
+                "t_ambient: give exactly one of t_ambient (a constant), ambient_profile (steps "
+                "or a logger file) or ambient_profiles (several named), "
+                + (f"not {' and '.join(given)}" if given else "none is given")
             )
         if x.get("ambient_profile") is not None:
             kw["t_ambient"] = x["ambient_profile"]
+        if x.get("ambient_profiles") is not None:
+            kw.pop("t_ambient", None)
+            kw["ambient_profiles"] = x["ambient_profiles"]
         return ShipperStudy(
             [to_candidate(c) for c in scenario.candidates],
             materials,
@@ -2305,16 +3124,25 @@ def _shipper_kind() -> StudyKind:
         inputs: dict[str, Any] = {"coolant": study.coolant}
         code = str(study.coolant_row.get("currency", "EUR"))
         code = code if code in units.CURRENCIES else "EUR"
+        def rows(profile):
+            times, temps = profile
+            return [
+                [_si_text(t, "s"), _si_text(tk, "K")]
+                for t, tk in zip(np.asarray(times, float), np.asarray(temps, float), strict=True)
+            ]
+
+        named = getattr(study, "ambient_profiles", None)
+        if named:
+            inputs["ambient_profiles"] = {
+                n: (rows(v) if isinstance(v, tuple | list) else [["0 s", _si_text(v, "K")]])
+                for n, v in named.items()
+            }
         for name, q in quantities.items():
             v = getattr(study, name)
+            if name == "t_ambient" and named:
+                continue
             if name == "t_ambient" and not np.isscalar(v) and not isinstance(v, float):
-                times, temps = v
-                inputs["ambient_profile"] = [
-                    [_si_text(t, "s"), _si_text(tk, "K")]
-                    for t, tk in zip(
-                        np.asarray(times, float), np.asarray(temps, float), strict=True
-                    )
-                ]
+                inputs["ambient_profile"] = rows(v)
                 continue
             if v is None:
                 continue
@@ -2382,9 +3210,9 @@ def _shipper_kind() -> StudyKind:
                     )
                 names.append(c)
                 continue
-            extra = set(c) - {"name", "layers"}
-            if extra:
-                problems.append((i, sorted(extra)[0], "unknown key; valid keys: name, layers"))
+            for k in c:
+                if k not in ("name", "layers"):
+                    problems.append((i, k, _unknown_key_why(k, ("name", "layers"))))
             _check_layer_list(i, c, known, problems, allow_special=True)
             names.append(str(c.get("name") or _layers_name(c.get("layers") or [])))
         _duplicates(names, problems)
@@ -2438,7 +3266,17 @@ def _shipper_kind() -> StudyKind:
             "ambient_profile",
             "profile",
             None,
-            'Ambient step profile instead: [["0 h", "25 °C"], ["12 h", "30 °C"], ...]',
+            'Ambient step profile instead: [["0 h", "25 °C"], ["12 h", "30 °C"], ...], '
+            'or a temperature logger\'s CSV: { file = "route.csv" } (heatpath records its sha256)',
+            required=False,
+        ),
+        mk(
+            "ambient_profiles",
+            "profiles",
+            None,
+            "Several named ambient profiles instead, each a step list or a logger file: "
+            '{ summer = { file = "summer.csv" }, winter = { file = "winter.csv" } }; '
+            "a design passes only if it holds under every one",
             required=False,
         ),
         mk("duration", "time", "48 h", "Required hold time"),
@@ -2448,12 +3286,19 @@ def _shipper_kind() -> StudyKind:
             ["10 mm", "20 mm", "30 mm", "40 mm", "50 mm", "60 mm", "80 mm", "100 mm"],
             "Sized-layer thicknesses to sweep",
         ),
-        mk("safety_factor", "dimensionless", 1.2, "Multiplier on the sized coolant mass (>= 1)"),
+        mk(
+            "safety_factor",
+            "dimensionless",
+            1.2,
+            "Multiplier on the sized coolant mass (>= 1)",
+            bounds=(1.0, None),
+        ),
         mk(
             "coolant_packing_fraction",
             "dimensionless",
             0.8,
-            "Share of the coolant space filled by coolant",
+            "Share of the coolant space filled by coolant (0.001 to 1)",
+            bounds=(1e-3, 1.0),
         ),
         mk(
             "t_coolant_start",
@@ -2474,7 +3319,8 @@ def _shipper_kind() -> StudyKind:
             "coolant_wall_fraction",
             "dimensionless",
             0.8,
-            "Share of the box conductance reaching the coolant directly",
+            "Share of the box conductance reaching the coolant directly (0 to 1)",
+            bounds=units.FRACTION,
         ),
         mk(
             "divisor",
@@ -2567,6 +3413,9 @@ def _layers_name(layers: Sequence[Any]) -> str:
 # ---------------------------------------------------------------------------
 # The housing kind
 # ---------------------------------------------------------------------------
+_HOUSING_KEYS = ("material", "thickness", "finish", "name")
+
+
 def _housing_kind() -> StudyKind:
     from workbench.housing import MOUNTINGS
     from workbench.studies.housing import Component, HousingCandidate, HousingStudy, load_finishes
@@ -2583,11 +3432,23 @@ def _housing_kind() -> StudyKind:
 
     def build(scenario: Scenario, x: dict, materials, curves):
         comp = None
+        parts = ("component_length", "component_width", "component_power")
+        given = [k for k in parts if x.get(k) is not None]
+        if given and len(given) < 3:
+            missing = [k for k in parts if k not in given]
+            raise ValueError(
+                f"{missing[0]}: missing; a component needs all of {', '.join(parts)} "
+                f"(given: {', '.join(given)})"
+            )
         if x.get("component_power") is not None:
             comp = Component(x["component_length"], x["component_width"], x["component_power"])
         kw = {}
         if x.get("h_inside") is not None:
             kw["h_inside"] = x["h_inside"]
+        if x.get("session_duration") is not None:
+            kw["session_duration"] = x["session_duration"]
+        if x.get("content_heat_capacity") is not None:
+            kw["content_heat_capacity"] = x["content_heat_capacity"]
         return HousingStudy(
             [to_candidate(c) for c in scenario.candidates],
             materials,
@@ -2621,6 +3482,8 @@ def _housing_kind() -> StudyKind:
             inputs["component_power"] = _si_text(study.component.power, "W")
         if study.h_inside is not None:
             inputs["h_inside"] = _si_text(study.h_inside, "W/(m^2*K)")
+        inputs["session_duration"] = _si_text(study.session_duration, "s")
+        inputs["content_heat_capacity"] = _si_text(study.content_heat_capacity, "J/K")
         cands = []
         for c in study.candidates:
             d: dict[str, Any] = {"material": c.material, "thickness": _si_text(c.thickness, "m")}
@@ -2641,15 +3504,9 @@ def _housing_kind() -> StudyKind:
                     (i, "", 'expected { material = "id", thickness = "2 mm", finish = "id" }')
                 )
                 continue
-            extra = set(c) - {"material", "thickness", "finish", "name"}
-            if extra:
-                problems.append(
-                    (
-                        i,
-                        sorted(extra)[0],
-                        "unknown key; valid keys: material, thickness, finish, name",
-                    )
-                )
+            for k in c:
+                if k not in _HOUSING_KEYS:
+                    problems.append((i, k, _unknown_key_why(k, _HOUSING_KEYS)))
             mid = c.get("material")
             if not isinstance(mid, str):
                 problems.append((i, "material", "missing material id"))
@@ -2727,6 +3584,22 @@ def _housing_kind() -> StudyKind:
                 "Inside convective coefficient (default: correlations)",
                 required=False,
             ),
+            mk(
+                "session_duration",
+                "time",
+                "20 min",
+                "Length of a use session for the warm-up from room temperature (default 20 min)",
+                required=False,
+                bounds=(1.0, 7 * 86400.0),
+            ),
+            mk(
+                "content_heat_capacity",
+                "heat_capacity",
+                "100 J/K",
+                "Heat capacity of the contents (boards, battery, brackets) for the warm-up; "
+                "the wall's own is added (default 100 J/K)",
+                required=False,
+            ),
         ),
         column_kinds=MappingProxyType(
             {
@@ -2746,6 +3619,9 @@ def _housing_kind() -> StudyKind:
                 "dt_surface_d_emissivity": "temperature_difference",
                 "mass": "mass",
                 "cost": None,
+                "heat_capacity": "heat_capacity",
+                "t_surface_session_end": "temperature",
+                "time_to_touch_limit": "time",
                 "touch_limit": "temperature",
                 "margin_surface": "temperature_difference",
                 "margin_hot_spot": "temperature_difference",

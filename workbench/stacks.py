@@ -28,7 +28,14 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from workbench._checks import Cancelled, finite, nonnegative, positive
+from workbench._checks import (
+    Cancelled,
+    absolute_temperature,
+    integer,
+    nonnegative,
+    positive,
+    scalar,
+)
 from workbench.ranking import pareto_front
 
 __all__ = [
@@ -149,7 +156,9 @@ def _options(conductivity, density, cost_per_volume, thicknesses) -> _Options:
     for name, a in (("density", rho), ("cost_per_volume", cv)):
         if a.shape != (nm,):
             raise ValueError(f"{name}: expected shape ({nm},) like conductivity, got {a.shape}")
-    if isinstance(thicknesses, np.ndarray) or (
+    if nm == 0:
+        raise ValueError("conductivity: no materials given (W/(m·K))")
+    if not isinstance(thicknesses, list | tuple) or (
         len(thicknesses) > 0 and np.ndim(thicknesses[0]) == 0
     ):
         t = positive("thicknesses", thicknesses, "m")
@@ -164,7 +173,11 @@ def _options(conductivity, density, cost_per_volume, thicknesses) -> _Options:
     else:
         if len(thicknesses) != nm:
             raise ValueError(f"thicknesses: expected {nm} lists (one per material) [m]")
-        per = [positive("thicknesses", np.atleast_1d(t), "m") for t in thicknesses]
+        per = [positive("thicknesses", np.atleast_1d(positive("thicknesses", t, "m")), "m")
+               for t in thicknesses]
+    for t in per:
+        if t.ndim != 1 or t.size == 0:
+            raise ValueError(f"thicknesses: each material needs at least one option [m], got shape {t.shape}")
     mat = np.concatenate([np.full(len(t), i) for i, t in enumerate(per)])
     opt = np.concatenate([np.arange(len(t)) for t in per])
     L = np.concatenate(per).astype(float)
@@ -224,8 +237,7 @@ def enumerate_stacks(
     (16, 1.0)
     """
     o = _options(conductivity, density, cost_per_volume, thicknesses)
-    if n_layers not in (1, 2, 3):
-        raise ValueError(f"n_layers: must be 1, 2 or 3, got {n_layers}")
+    n_layers = integer("n_layers", n_layers, minimum=1, maximum=3)
     n = o.material.shape[0]
     idt = np.int16 if max(n, o.n_materials) < 2**15 else np.int32
     shape = (n,) * n_layers
@@ -447,13 +459,12 @@ def stack_front(
     [[0, -1], [1, -1], [1, 0], [1, 1]]
     """
     o = _options(conductivity, density, cost_per_volume, thicknesses)
-    if max_layers not in (1, 2, 3):
-        raise ValueError(f"max_layers: must be 1, 2 or 3, got {max_layers}")
+    max_layers = integer("max_layers", max_layers, minimum=1, maximum=3)
     names = _objective_names(objectives)
     cols = [OBJECTIVES.index(n) for n in names]
     budget = None
     if max_total_thickness is not None:
-        budget = float(positive("max_total_thickness", max_total_thickness, "m"))
+        budget = float(positive("max_total_thickness", scalar("max_total_thickness", max_total_thickness, "m"), "m"))
     prune = sorted(set(cols) | ({3} if budget is not None else set()))
     vals, comp = _search(o, max_layers, prune, budget, allow_repeat, progress, cancel)
     s = _to_stackset(o, vals, comp, max_layers)
@@ -485,7 +496,7 @@ class StackCatalogue:
         """
         s = self.stacks
         if max_total_thickness is not None:
-            b = float(positive("max_total_thickness", max_total_thickness, "m"))
+            b = float(positive("max_total_thickness", scalar("max_total_thickness", max_total_thickness, "m"), "m"))
             s = s.subset(s.thickness <= b)
         if len(s) == 0:
             return s
@@ -620,17 +631,22 @@ def check_service_limits(order, face_temperatures, t_min, t_max) -> ServiceCheck
     >>> r.reasons[0]
     'layer 0 (material 0): 423.15 K is above its service limit 353.15 K'
     """
-    idx = np.asarray(order)
+    if isinstance(order, str | bytes) or order is None:
+        raise ValueError(f"order: expected a 1-D sequence of material indices, got {order!r}")
+    try:
+        idx = np.asarray(order)
+    except ValueError:
+        raise ValueError(f"order: expected a 1-D sequence of material indices, got {order!r}") from None
     if idx.ndim != 1 or idx.shape[0] == 0 or not np.issubdtype(idx.dtype, np.integer):
         raise ValueError("order: expected a 1-D sequence of material indices")
-    tf = finite("face_temperatures", face_temperatures, "K")
+    tf = absolute_temperature("face_temperatures", face_temperatures)
     if tf.shape != (idx.shape[0] + 1,):
         raise ValueError(
             f"face_temperatures: expected {idx.shape[0] + 1} values [K] "
             f"(n_layers + 1), got shape {tf.shape}"
         )
-    lo = np.atleast_1d(finite("t_min", t_min, "K"))
-    hi = np.atleast_1d(finite("t_max", t_max, "K"))
+    lo = np.atleast_1d(absolute_temperature("t_min", t_min))
+    hi = np.atleast_1d(absolute_temperature("t_max", t_max))
     if lo.shape != hi.shape or lo.ndim != 1:
         raise ValueError("t_min, t_max: expected one value per material [K], same shape")
     if idx.min() < 0 or idx.max() >= lo.shape[0]:

@@ -33,10 +33,13 @@ from scipy import constants
 
 from workbench._checks import (
     ValidityWarning,
+    absolute_temperature,
     broadcast,
+    finite_result,
     in_range,
     nonnegative,
     positive,
+    scalar,
     scalar_or_array,
 )
 from workbench.air_properties import air_properties
@@ -228,7 +231,7 @@ def blackbody_radiation_coefficient(t_mean: ArrayLike) -> float | np.ndarray:
     >>> round(blackbody_radiation_coefficient(283.15), 2)
     5.15
     """
-    tm = positive("t_mean", t_mean, "K")
+    tm = absolute_temperature("t_mean", t_mean)
     return scalar_or_array(4.0 * _SIGMA * tm**3)
 
 
@@ -269,8 +272,8 @@ def radiation_coefficient(
     4.985
     """
     eps = in_range("emissivity", emissivity, 0.0, 1.0, "-")
-    ts = positive("t_surface", t_surface, "K")
-    ta = positive("t_ambient", t_ambient, "K")
+    ts = absolute_temperature("t_surface", t_surface)
+    ta = absolute_temperature("t_ambient", t_ambient)
     broadcast(emissivity=eps, t_surface=ts, t_ambient=ta)
     return scalar_or_array(eps * _SIGMA * (ts * ts + ta * ta) * (ts + ta))
 
@@ -324,7 +327,9 @@ def iso6946_surface_resistance(
         t_mean = 293.15 if side == "inside" else 273.15
     hc = np.asarray(iso6946_convection_coefficient(side, direction, wind_speed))
     eps = in_range("emissivity", emissivity, 0.0, 1.0, "-")
-    hr = eps * np.asarray(blackbody_radiation_coefficient(t_mean))
+    tm = absolute_temperature("t_mean", t_mean)
+    broadcast(emissivity=eps, t_mean=tm, wind_speed=hc)
+    hr = eps * np.asarray(blackbody_radiation_coefficient(tm))
     return scalar_or_array(1.0 / (hc + hr))
 
 
@@ -445,15 +450,21 @@ def natural_convection_coefficient(
     0.0
     """
     _choice("orientation", orientation, ORIENTATIONS)
-    ts = positive("t_surface", t_surface, "K")
-    ta = positive("t_ambient", t_ambient, "K")
+    ts = absolute_temperature("t_surface", t_surface)
+    ta = absolute_temperature("t_ambient", t_ambient)
     el = positive("length", length, "m")
     ts, ta, el = broadcast(t_surface=ts, t_ambient=ta, length=el)
-    props = air_properties(0.5 * (ts + ta))
+    props = _film_properties(ts, ta)
     dt = np.abs(ts - ta)
-    ra = _rayleigh(props, dt, el)
-    pr = props.prandtl
     moving = dt > 0
+    with np.errstate(over="ignore", under="ignore"):
+        ra = _rayleigh(props, dt, el)
+    if np.any(~np.isfinite(ra) | (moving & (ra <= 0))):
+        raise ValueError(
+            "length: the Rayleigh number over- or underflows for this characteristic length "
+            "(m) and t_surface, t_ambient (K); no correlation covers it"
+        )
+    pr = props.prandtl
     if orientation == "vertical":
         nu = (0.825 + 0.387 * ra ** (1 / 6) / (1 + (0.492 / pr) ** (9 / 16)) ** (8 / 27)) ** 2
         _warn_outside(
@@ -480,7 +491,19 @@ def natural_convection_coefficient(
             moving & ~unstable & ((ra < 1e4) | (ra > 1e9)),
             "1e4–1e9 (Incropera Eq. 9.32)",
         )
-    return scalar_or_array(nu * props.conductivity / el)
+    return finite_result(
+        "natural_convection_coefficient",
+        scalar_or_array(nu * props.conductivity / el),
+        "t_surface", "t_ambient", "length",
+    )
+
+
+def _film_properties(ts, ta, names=("t_surface", "t_ambient")):
+    """Air properties at the film temperature; a film outside the fits names both temperatures."""
+    try:
+        return air_properties(0.5 * (ts + ta))
+    except ValueError as exc:
+        raise ValueError(f"{names[0]}, {names[1]}: film temperature: {exc}") from None
 
 
 def flat_plate_convection_coefficient(
@@ -538,17 +561,24 @@ def flat_plate_convection_coefficient(
     """
     u = nonnegative("velocity", velocity, "m/s")
     el = positive("length", length, "m")
-    ts = positive("t_surface", t_surface, "K")
-    ta = positive("t_air", t_air, "K")
-    rec = float(positive("re_transition", re_transition, "-"))
+    ts = absolute_temperature("t_surface", t_surface)
+    ta = absolute_temperature("t_air", t_air)
+    rec = float(positive("re_transition", scalar("re_transition", re_transition, "-"), "-"))
     u, el, ts, ta = broadcast(velocity=u, length=el, t_surface=ts, t_air=ta)
-    props = air_properties(0.5 * (ts + ta))
-    re = u * el / props.kinematic_viscosity
+    props = _film_properties(ts, ta, ("t_surface", "t_air"))
+    with np.errstate(over="ignore"):
+        re = u * el / props.kinematic_viscosity
+    if not np.all(np.isfinite(re)):
+        raise ValueError("velocity, length: the Reynolds number overflows (m/s, m)")
     pr13 = np.cbrt(props.prandtl)
     a = 0.037 * rec**0.8 - 0.664 * rec**0.5
     nu = np.where(re <= rec, 0.664 * np.sqrt(re) * pr13, (0.037 * re**0.8 - a) * pr13)
     _warn_outside("flat_plate_convection_coefficient: Re_L", re, re > 1e8, "<= 1e8")
-    return scalar_or_array(nu * props.conductivity / el)
+    return finite_result(
+        "flat_plate_convection_coefficient",
+        scalar_or_array(nu * props.conductivity / el),
+        "velocity", "length", "t_surface", "t_air", "re_transition",
+    )
 
 
 def _convective(t_surface, t_air, length, orientation, wind_speed):
@@ -557,7 +587,10 @@ def _convective(t_surface, t_air, length, orientation, wind_speed):
     if not np.any(v > 0):
         return hn
     hf = np.asarray(flat_plate_convection_coefficient(v, length, t_surface, t_air))
-    return np.cbrt(hn**3 + hf**3)
+    # (hn³ + hf³)^(1/3) scaled by the larger term, so large coefficients do not overflow
+    big = np.maximum(hn, hf)
+    safe = np.where(big > 0, big, 1.0)
+    return big * np.cbrt((hn / safe) ** 3 + (hf / safe) ** 3)
 
 
 def combined_film_resistance(
@@ -615,10 +648,20 @@ def combined_film_resistance(
     >>> round(combined_film_resistance(303.15, 293.15, 0.5, "vertical"), 3)
     0.114
     """
+    _choice("orientation", orientation, ORIENTATIONS)
+    ts = absolute_temperature("t_surface", t_surface)
+    ta = absolute_temperature("t_air", t_air)
+    el = positive("length", length, "m")
     eps = in_range("emissivity", emissivity, 0.0, 1.0, "-")
-    nonnegative("wind_speed", wind_speed, "m/s")
-    hc = _convective(t_surface, t_air, length, orientation, wind_speed)
-    hr = np.asarray(radiation_coefficient(eps, t_surface, t_air))
+    v = nonnegative("wind_speed", wind_speed, "m/s")
+    ts, ta, el, eps, v = broadcast(
+        t_surface=ts, t_air=ta, length=el, emissivity=eps, wind_speed=v
+    )
+    try:
+        hc = _convective(ts, ta, el, orientation, v)
+    except ValueError as exc:  # the correlations name t_ambient for the air temperature
+        raise ValueError(str(exc).replace("t_ambient", "t_air")) from None
+    hr = np.asarray(radiation_coefficient(eps, ts, ta))
     h = hc + hr
     with np.errstate(divide="ignore"):
         return scalar_or_array(np.where(h > 0, 1.0 / np.where(h > 0, h, 1.0), np.inf))
@@ -655,10 +698,10 @@ class SurfaceFilm:
     wind_speed: float = 0.0
 
     def __post_init__(self):
-        positive("length", self.length, "m")
+        positive("length", scalar("length", self.length, "m"), "m")
         _choice("orientation", self.orientation, ORIENTATIONS)
-        in_range("emissivity", self.emissivity, 0.0, 1.0, "-")
-        nonnegative("wind_speed", self.wind_speed, "m/s")
+        in_range("emissivity", scalar("emissivity", self.emissivity, "-"), 0.0, 1.0, "-")
+        nonnegative("wind_speed", scalar("wind_speed", self.wind_speed, "m/s"), "m/s")
         if self.orientation != "vertical" and self.emissivity == 0 and self.wind_speed == 0:
             raise ValueError(
                 "emissivity: must be > 0 (or wind_speed > 0 m/s) for a horizontal film; with "

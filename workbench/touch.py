@@ -1,9 +1,22 @@
 """Touch-temperature limits: how hot an accessible surface may be.
 
-The shipped defaults are the skin burn thresholds for long contact periods of
-ISO 13732-1:2006, Table 2 (recalled from memory, not re-read): 1 min — uncoated
-and coated metals 51 °C, ceramics, glass and stone 56 °C, plastics and wood
-60 °C; 10 min — 48 °C for all materials; 8 h and longer — 43 °C for all.
+The shipped defaults are the skin burn thresholds of ISO 13732-1:2006, all
+recalled from memory, not re-read:
+
+- long contacts (its Table 2): 1 min — uncoated and coated metals 51 °C,
+  ceramics, glass and stone 56 °C, plastics and wood 60 °C; 10 min — 48 °C for
+  all materials; 8 h and longer — 43 °C for all;
+- short contacts (its threshold-band figures, read here as the lower edge of
+  each band): 1 s — metals 65 °C, ceramics, glass and stone 80 °C, plastics
+  85 °C, wood 110 °C; 10 s — metals 55 °C, ceramics 66 °C, plastics 71 °C,
+  wood 89 °C. Coated metals take the uncoated values (conservative).
+
+What was read from stored public copies of the standard's scope: it gives
+burn thresholds for contact periods of 0.5 s and longer, for surfaces whose
+temperature is kept up during the contact, and not for contact of more than
+about 10 % of the skin. Between 1 s and 10 s the limit is interpolated in
+log(time); above 10 s the next longer tabulated duration applies (the lower,
+conservative value: 5 min takes the 10 min limit).
 
 These are burn thresholds of the skin, **not** product limits. Product-safety
 standards (for IT and audio/video equipment, household appliances, medical
@@ -27,11 +40,19 @@ from pathlib import Path
 import numpy as np
 from numpy.typing import ArrayLike
 
-from workbench._checks import finite, positive, scalar_or_array
+from workbench._checks import (
+    absolute_temperature,
+    broadcast_shape,
+    positive,
+    scalar,
+    scalar_or_array,
+)
 
 __all__ = [
     "MATERIAL_CLASSES",
     "TOUCH_CAUTION",
+    "INTERPOLATE_UP_TO",
+    "CONTACT_RANGE",
     "TouchLimit",
     "TouchLimits",
     "load_touch_limits",
@@ -51,14 +72,21 @@ MATERIAL_CLASSES: tuple[str, ...] = (
 
 #: The caution every touch-temperature result carries.
 TOUCH_CAUTION = (
-    "Touch limits shipped here are the ISO 13732-1:2006 burn thresholds for long contact "
-    "(recalled from memory); product-safety standards set their own limits for accessible "
+    "Touch limits shipped here are the ISO 13732-1:2006 skin burn thresholds for contacts of "
+    "1 s to 8 h (recalled from memory, not re-read); product-safety standards set their own limits for accessible "
     "surfaces, which you must look up and enter. Calculated surface temperatures are "
     "first-order estimates: touch safety is decided by the applicable product standard and "
     "by testing the product."
 )
 
 _COLUMNS = ("material_class", "contact_duration", "limit", "source", "note")
+
+#: Up to this contact duration [s] the limit between tabulated durations is interpolated in
+#: log(time), as along the standard's short-contact threshold curves; above it the next
+#: longer tabulated duration applies (the lower, conservative value).
+INTERPOLATE_UP_TO = 10.0
+#: Contact durations :func:`touch_limit` accepts [s]: 1 s (a tap) to 8 h.
+CONTACT_RANGE = (1.0, 8 * 3600.0)
 _ZERO_C = 273.15
 
 _FAMILY_CLASS = {
@@ -102,8 +130,10 @@ class TouchLimit:
 
     def __post_init__(self):
         _choice("material_class", self.material_class, MATERIAL_CLASSES)
-        positive("contact_duration", self.contact_duration, "s")
-        positive("limit", self.limit, "K")
+        duration = float(positive("contact_duration", scalar("contact_duration", self.contact_duration, "s"), "s"))
+        limit = float(absolute_temperature("limit", scalar("limit", self.limit, "K")))
+        object.__setattr__(self, "contact_duration", duration)
+        object.__setattr__(self, "limit", limit)
         if not str(self.source).strip():
             raise ValueError(
                 "source: every touch limit needs a source (standard and clause, or a marker)"
@@ -114,13 +144,13 @@ class TouchLimit:
 class TouchLimits:
     """A table of touch limits, looked up by surface class and contact duration.
 
-    For a contact duration between tabulated ones the limit of the next
-    *longer* tabulated duration is used (the lower, conservative value);
-    durations longer than the longest tabulated one use that longest one (in
-    ISO 13732-1 the 8 h value holds for 8 h and longer). Durations shorter
-    than the shortest tabulated one raise ``ValueError``: short-contact burn
-    thresholds depend on the material's contact properties (ISO 13732-1
-    figures, not shipped); enter them as rows if you need them.
+    For a contact duration between tabulated ones up to
+    :data:`INTERPOLATE_UP_TO` the limit is interpolated linearly in
+    log(duration); above it the limit of the next *longer* tabulated duration
+    is used (the lower, conservative value); durations longer than the longest
+    tabulated one use that longest one (in ISO 13732-1 the 8 h value holds for
+    8 h and longer). Durations shorter than the shortest tabulated one raise
+    ``ValueError``.
     """
 
     rows: tuple[TouchLimit, ...]
@@ -138,9 +168,15 @@ class TouchLimits:
         return tuple(c for c in MATERIAL_CLASSES if any(r.material_class == c for r in self.rows))
 
     def lookup(self, material_class: str, contact_duration: float) -> TouchLimit:
-        """The row that applies to a class and a contact duration [s]."""
+        """The row that applies to a class and a contact duration [s].
+
+        Between two tabulated durations up to :data:`INTERPOLATE_UP_TO` (10 s) the
+        limit is interpolated linearly in log(duration), as along the standard's
+        short-contact threshold curves; above it the next longer tabulated
+        duration applies (the lower, conservative value).
+        """
         _choice("material_class", material_class, self.classes() or MATERIAL_CLASSES)
-        d = float(positive("contact_duration", contact_duration, "s"))
+        d = float(positive("contact_duration", scalar("contact_duration", contact_duration, "s"), "s"))
         rows = sorted(
             (r for r in self.rows if r.material_class == material_class),
             key=lambda r: r.contact_duration,
@@ -151,9 +187,19 @@ class TouchLimits:
                 f"({rows[0].contact_duration:g} s) for {material_class!r}; short-contact limits "
                 "depend on the material (ISO 13732-1 figures) — add them as rows"
             )
-        for r in rows:
+        for i, r in enumerate(rows):
             if d <= r.contact_duration * (1 + 1e-12):
-                return r
+                if i == 0 or d >= r.contact_duration * (1 - 1e-12) or r.contact_duration > INTERPOLATE_UP_TO:
+                    return r
+                lo = rows[i - 1]
+                w = math.log(d / lo.contact_duration) / math.log(r.contact_duration / lo.contact_duration)
+                limit = lo.limit + w * (r.limit - lo.limit)
+                source = lo.source if lo.source == r.source else f"{lo.source}; {r.source}"
+                return TouchLimit(
+                    material_class, d, limit, source,
+                    f"interpolated in log(time) between {lo.contact_duration:g} s and "
+                    f"{r.contact_duration:g} s",
+                )
         return rows[-1]
 
     def limit(self, material_class: str, contact_duration: float) -> float:
@@ -169,7 +215,7 @@ class TouchLimits:
         note: str = "",
     ) -> TouchLimits:
         """A copy with one row added or replaced (e.g. a product standard's limit) [s, K]."""
-        new = TouchLimit(material_class, float(contact_duration), float(limit), source, note)
+        new = TouchLimit(material_class, contact_duration, limit, source, note)
         rows = [
             r
             for r in self.rows
@@ -351,11 +397,16 @@ def touch_limit(
 
     Notes
     -----
-    Between tabulated durations the next longer one (lower limit) applies.
+    Contact durations from 1 s (a tap) to 8 h are accepted; outside that
+    range a ``ValueError`` says so. Between 1 s and 10 s the limit is
+    interpolated linearly in log(duration); above 10 s the next longer
+    tabulated duration (lower limit) applies.
 
     References
     ----------
-    ``iso13732-1-2006-t2-mem``: ISO 13732-1:2006, Table 2 (from memory).
+    ``iso13732-1-2006-t2-mem``: ISO 13732-1:2006, Table 2 (from memory);
+    ``iso13732-1-2006-fig-mem``: its short-contact threshold bands, lower edge
+    (from memory).
 
     Examples
     --------
@@ -363,9 +414,21 @@ def touch_limit(
     56.0
     >>> round(touch_limit("wood", 8 * 3600.0) - 273.15, 2)
     43.0
+    >>> round(touch_limit("metal-uncoated", 1.0) - 273.15, 1)   # a tap
+    65.0
+    >>> round(touch_limit("plastic", 10.0) - 273.15, 1)          # a grab
+    71.0
     """
+    d = float(positive("contact_duration", scalar("contact_duration", contact_duration, "s"), "s"))
+    lo, hi = CONTACT_RANGE
+    if not lo * (1 - 1e-12) <= d <= hi * (1 + 1e-12):
+        raise ValueError(
+            f"contact_duration: {d:g} s is outside the range the burn thresholds cover here "
+            f"({lo:g} s to {hi / 3600:g} h); the standard gives no threshold below 0.5 s, and "
+            "8 h stands for any longer contact: enter 8 h"
+        )
     table = load_touch_limits() if limits is None else limits
-    return table.limit(material_class, contact_duration)
+    return table.limit(material_class, d)
 
 
 def touch_margin(t_surface: ArrayLike, limit: ArrayLike) -> float | np.ndarray:
@@ -396,6 +459,7 @@ def touch_margin(t_surface: ArrayLike, limit: ArrayLike) -> float | np.ndarray:
     >>> round(touch_margin(318.15, 321.15), 2)
     3.0
     """
-    ts = positive("t_surface", t_surface, "K")
-    lim = finite("limit", limit, "K")
-    return scalar_or_array(np.asarray(lim) - ts)
+    ts = absolute_temperature("t_surface", t_surface)
+    lim = absolute_temperature("limit", limit)
+    broadcast_shape(t_surface=ts, limit=lim)
+    return scalar_or_array(lim - ts)

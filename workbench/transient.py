@@ -18,10 +18,18 @@ Two models, one energy balance:
 - Sizing: :func:`coolant_mass_for_duration`, :func:`max_conductance_for_duration`,
   :func:`thickness_for_duration` (vectorised monotone bisection).
 
-Ambient input ``t_ambient``: a temperature [K] or a step profile
-``(times_s, temperatures_K)``: ``times_s`` starts at 0 and increases strictly;
+Ambient input ``t_ambient``: a temperature [K] or a step profile, either a
+tuple of columns ``(times_s, temperatures_K)`` or rows ``[[time_s,
+temperature_K], ...]`` (a list of lists or an N×2 array); see
+:func:`ambient_profile`. Times start at 0 and increase strictly;
 ``temperatures_K[i]`` holds from ``times_s[i]`` to ``times_s[i+1]`` and the
 last value holds for ever.
+
+Work limits (checked before computing, raised as ``ValueError`` with the way
+out): :data:`MAX_STEPS` time steps per variant, :data:`MAX_CELLS` variants ×
+steps and :data:`MAX_STORED` stored values per series in
+:func:`simulate_hold`; :data:`MAX_PROFILE_POINTS` profile points. Each can be
+raised for one call by a keyword argument.
 
 Caution: a hold time from these models is a design estimate. Packaging for
 medicines and other temperature-sensitive goods is qualified by testing
@@ -32,6 +40,7 @@ gas (never a gas-tight box; ventilate; dangerous goods for air transport).
 
 from __future__ import annotations
 
+import math
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 from types import MappingProxyType
@@ -41,6 +50,7 @@ import numpy as np
 from workbench._checks import (
     Cancelled,
     broadcast,
+    broadcast_shape,
     finite,
     in_range,
     nonnegative,
@@ -51,6 +61,12 @@ from workbench._checks import (
 __all__ = [
     "REASONS",
     "PAYLOAD_RANGES",
+    "MAX_STEPS",
+    "MAX_CELLS",
+    "MAX_STORED",
+    "MAX_PROFILE_POINTS",
+    "AMBIENT_RANGE",
+    "TEMPERATURE_RANGE",
     "ambient_profile",
     "mean_ambient",
     "hold_time",
@@ -63,8 +79,14 @@ __all__ = [
 
 #: A float, a sequence of floats or an array (broadcasting).
 ArrayLike = float | Sequence[float] | np.ndarray
-#: A constant temperature [K] or a step profile (times_s [s], temperatures_K [K]).
-AmbientLike = float | tuple[Sequence[float] | np.ndarray, Sequence[float] | np.ndarray]
+#: A constant temperature [K] or a step profile: columns (times_s [s],
+#: temperatures_K [K]) as a tuple, or rows [[time_s, temperature_K], ...].
+AmbientLike = (
+    float
+    | tuple[Sequence[float] | np.ndarray, Sequence[float] | np.ndarray]
+    | Sequence[Sequence[float]]
+    | np.ndarray
+)
 
 #: Usual payload temperature ranges (min, max) [K]; ``None``: no limit on that
 #: side. Common-practice labels of the cold chain; the product's own labelling
@@ -78,6 +100,21 @@ PAYLOAD_RANGES = MappingProxyType(
     }
 )
 
+#: Most time steps per variant in one :func:`simulate_hold` call (``max_steps=`` raises it).
+MAX_STEPS = 1_000_000
+#: Most variants × time steps in one :func:`simulate_hold` call (``max_cells=`` raises it).
+MAX_CELLS = 100_000_000
+#: Most stored values per series (variants × stored times) in one
+#: :func:`simulate_hold` call, about 80 MB each (``max_stored=`` raises it).
+MAX_STORED = 10_000_000
+#: Most points of an ambient profile.
+MAX_PROFILE_POINTS = 100_000
+#: Plausible ambient temperatures around a shipper, −100 … +100 °C. [K]
+AMBIENT_RANGE = (173.15, 373.15)
+#: Plausible temperatures of coolant and payload (liquid nitrogen at 77 K to
+#: well above any payload); catches °C given as K. [K]
+TEMPERATURE_RANGE = (50.0, 1000.0)
+
 #: Why a simulated hold ended.
 REASONS: tuple[str, ...] = (
     "coolant spent",
@@ -90,15 +127,60 @@ REASONS: tuple[str, ...] = (
 # ---------------------------------------------------------------------------
 # Ambient profiles
 # ---------------------------------------------------------------------------
+def _values(name: str, value, unit: str, check=positive) -> np.ndarray:
+    """``check`` (positive, nonnegative, finite) and refuse an empty array."""
+    arr = check(name, value, unit)
+    if arr.size == 0:
+        raise ValueError(f"{name}: empty; give at least one value [{unit}]")
+    return arr
+
+
+def _scalar(name: str, value, unit: str, check=positive) -> float:
+    """One number: ``check`` it and refuse arrays of other than one element."""
+    arr = check(name, value, unit)
+    if arr.size != 1:
+        raise ValueError(f"{name}: expected one number [{unit}], got an array of shape {arr.shape}")
+    return float(arr.reshape(()))
+
+
+def _count(name: str, value, what: str) -> int:
+    """A positive integer (not a boolean)."""
+    if isinstance(value, bool | np.bool_) or not isinstance(value, int | np.integer) or value < 1:
+        raise ValueError(f"{name}: expected a positive whole number ({what}), got {value!r:.60}")
+    return int(value)
+
+
+def _temperature(name: str, value, limits: tuple[float, float] = TEMPERATURE_RANGE) -> np.ndarray:
+    """Absolute temperatures [K] within ``limits``; the message names the first bad element."""
+    arr = _values(name, value, "K", finite)
+    lo, hi = limits
+    bad = (arr < lo) | (arr > hi)
+    if np.any(bad):
+        idx = np.argwhere(np.atleast_1d(bad))[0]
+        where = f" at index {tuple(int(i) for i in idx)}" if arr.ndim else ""
+        got = float(np.atleast_1d(arr)[tuple(idx)])
+        raise ValueError(
+            f"{name}: must lie in [{lo:g}, {hi:g}] K, got {got:g} K{where}; temperatures are "
+            "absolute, in kelvin (°C + 273.15)"
+        )
+    return arr
+
+
 def ambient_profile(t_ambient: AmbientLike) -> tuple[np.ndarray, np.ndarray]:
     """Validate an ambient temperature or step profile.
 
     Parameters
     ----------
-    t_ambient : float or (array, array)
-        A constant temperature [K], or ``(times_s, temperatures_K)``: times
-        [s] from 0, strictly increasing, and the temperature [K] holding from
-        each time to the next (the last one for ever).
+    t_ambient : float, tuple of two sequences, list of rows or N×2 array
+        A constant temperature [K]; or a step profile given either as a
+        **tuple of columns** ``(times_s, temperatures_K)`` (two 1-D
+        sequences of equal length) or as **rows** ``[[time_s,
+        temperature_K], ...]`` (a list of lists, or an ndarray of shape
+        (N, 2)). A 2×2 input is read by its type: a tuple is columns, a
+        list or ndarray is rows. Times [s] start at 0 and increase strictly
+        (sorted, no repeated time); each temperature [K] holds from its time
+        to the next (the last one for ever). Temperatures lie in
+        :data:`AMBIENT_RANGE`; at most :data:`MAX_PROFILE_POINTS` points.
 
     Returns
     -------
@@ -120,38 +202,81 @@ def ambient_profile(t_ambient: AmbientLike) -> tuple[np.ndarray, np.ndarray]:
     (array([0.]), array([300.]))
     >>> ambient_profile(([0, 3600], [303.15, 293.15]))[1]
     array([303.15, 293.15])
+
+    The same profile as rows:
+
+    >>> ambient_profile([[0, 303.15], [3600, 293.15]])[1]
+    array([303.15, 293.15])
     """
-    if isinstance(t_ambient, tuple | list) and len(t_ambient) == 2 and np.ndim(t_ambient[0]) == 1:
+    if isinstance(t_ambient, tuple):
+        if len(t_ambient) != 2:
+            raise ValueError(
+                f"t_ambient: a tuple must be (times_s, temperatures_K), two sequences; got "
+                f"{len(t_ambient)} items (for rows [[time_s, temperature_K], ...] give a list)"
+            )
         times = finite("t_ambient times_s", t_ambient[0], "s")
-        temps = positive("t_ambient temperatures_K", t_ambient[1], "K")
+        temps = finite("t_ambient temperatures_K", t_ambient[1], "K")
         if times.ndim != 1 or temps.ndim != 1:
-            raise ValueError("t_ambient: times_s and temperatures_K must be 1-D arrays [s], [K]")
-        if times.size == 0:
-            raise ValueError("t_ambient times_s: the profile is empty; give at least one point [s]")
+            raise ValueError(
+                "t_ambient: a tuple (times_s, temperatures_K) needs two 1-D sequences [s], [K]; got "
+                f"shapes {times.shape} and {temps.shape} (for rows [[time_s, temperature_K], ...] "
+                "give a list)"
+            )
         if times.size != temps.size:
             raise ValueError(
                 f"t_ambient: times_s has {times.size} values, temperatures_K {temps.size}; they must match"
             )
-        if times[0] != 0.0:
-            raise ValueError(f"t_ambient times_s: must start at 0 s (got {times[0]:g})")
-        if np.any(np.diff(times) <= 0):
-            raise ValueError("t_ambient times_s: must increase strictly (sorted, no repeats) [s]")
-        return times, temps
-    temp = positive("t_ambient", t_ambient, "K")
-    if temp.ndim != 0:
+    elif isinstance(t_ambient, list) or (isinstance(t_ambient, np.ndarray) and t_ambient.ndim != 0):
+        rows = finite("t_ambient", t_ambient, "rows [time s, temperature K]")
+        if rows.ndim != 2 or rows.shape[1] != 2:
+            raise ValueError(
+                "t_ambient: a list or array is read as rows [[time_s, temperature_K], ...] "
+                f"(shape N×2); got shape {rows.shape} (for columns give a tuple (times_s, temperatures_K))"
+            )
+        times, temps = rows[:, 0].copy(), rows[:, 1].copy()
+    else:
+        temp = _temperature("t_ambient", t_ambient, AMBIENT_RANGE)
+        if temp.ndim != 0:
+            raise ValueError(
+                "t_ambient: expected a temperature [K] or a step profile: a tuple (times_s, "
+                "temperatures_K) or rows [[time_s, temperature_K], ...]"
+            )
+        return np.zeros(1), temp.reshape(1)
+    if times.size == 0:
+        raise ValueError("t_ambient times_s: the profile is empty; give at least one point [s]")
+    if times.size > MAX_PROFILE_POINTS:
         raise ValueError(
-            "t_ambient: expected a temperature [K] or a (times_s, temperatures_K) step profile"
+            f"t_ambient: {times.size} profile points; the limit is {MAX_PROFILE_POINTS} "
+            "(MAX_PROFILE_POINTS): merge steps of equal temperature or resample the profile coarser"
         )
-    return np.zeros(1), temp.reshape(1)
+    if times[0] != 0.0:
+        raise ValueError(f"t_ambient times_s: row 0 must be at 0 s (got {times[0]:g} s)")
+    step = np.diff(times)
+    if np.any(step <= 0):
+        i = int(np.argmax(step <= 0)) + 1
+        what = "repeats" if step[i - 1] == 0 else "is earlier than"
+        raise ValueError(
+            f"t_ambient times_s: row {i} (counting from 0) at {times[i]:g} s {what} row {i - 1} "
+            f"at {times[i - 1]:g} s; the profile's times must increase strictly (sorted, no "
+            "repeated time) [s]"
+        )
+    bad = (temps < AMBIENT_RANGE[0]) | (temps > AMBIENT_RANGE[1])
+    if np.any(bad):
+        i = int(np.argmax(bad))
+        raise ValueError(
+            f"t_ambient temperatures_K: row {i} (counting from 0) is {temps[i]:g} K, outside "
+            f"[{AMBIENT_RANGE[0]:g}, {AMBIENT_RANGE[1]:g}] K (−100 … +100 °C); temperatures are "
+            "absolute, in kelvin; columns go in a tuple (times_s, temperatures_K), rows in a list "
+            "[[time_s, temperature_K], ...]"
+        )
+    return times, temps
 
 
 def _integral(times: np.ndarray, temps: np.ndarray, t) -> np.ndarray:
     """∫_0^t T_a dt' of a step profile. [K·s]"""
     t = np.asarray(t, float)
-    seg_ends = np.append(times[1:], np.inf)
     cum = np.concatenate([[0.0], np.cumsum(temps[:-1] * np.diff(times))])
     i = np.clip(np.searchsorted(times, t, side="right") - 1, 0, None)
-    del seg_ends
     return cum[i] + temps[i] * (t - times[i])
 
 
@@ -186,8 +311,8 @@ def mean_ambient(
     290.0
     """
     times, temps = ambient_profile(t_ambient)
-    t0 = nonnegative("t_start", t_start, "s")
-    t1 = positive("t_end", t_end, "s")
+    t0 = _values("t_start", t_start, "s", nonnegative)
+    t1 = _values("t_end", t_end, "s")
     t0, t1 = broadcast(t_start=t0, t_end=t1)
     if np.any(t1 <= t0):
         raise ValueError("t_end: must be later than t_start [s]")
@@ -273,15 +398,15 @@ def hold_time(
     ...                 t_payload_max=281.15) / 3600, 3)
     15.8
     """
-    ua = positive("conductance", conductance, "W/K")
+    ua = _values("conductance", conductance, "W/K")
     times, temps = ambient_profile(t_ambient)
-    m = nonnegative("coolant_mass", coolant_mass, "kg")
-    lat = positive("latent_heat", latent_heat, "J/kg")
-    tpc = positive("t_phase_change", t_phase_change, "K")
-    cap_c = nonnegative("payload_heat_capacity", payload_heat_capacity, "J/K")
-    ts = tpc if t_payload_start is None else positive("t_payload_start", t_payload_start, "K")
+    m = _values("coolant_mass", coolant_mass, "kg", nonnegative)
+    lat = _values("latent_heat", latent_heat, "J/kg")
+    tpc = _temperature("t_phase_change", t_phase_change)
+    cap_c = _values("payload_heat_capacity", payload_heat_capacity, "J/K", nonnegative)
+    ts = tpc if t_payload_start is None else _temperature("t_payload_start", t_payload_start)
     want_max = t_payload_max is not None
-    tmax = positive("t_payload_max", t_payload_max, "K") if want_max else np.inf
+    tmax = _temperature("t_payload_max", t_payload_max) if want_max else np.inf
     ua, m, lat, tpc, cap_c, ts, tmax = (
         np.array(a, float)
         for a in broadcast(
@@ -294,7 +419,19 @@ def hold_time(
             t_payload_max=tmax,
         )
     )
-    cap = m * lat
+    with np.errstate(all="ignore"):
+        result, state = _hold_scan(ua, times, temps, m * lat, tpc, cap_c, ts, tmax, want_max)
+    if np.any(np.isnan(result) | np.isnan(state)):
+        raise ValueError(
+            "hold_time: conductance, coolant_mass, latent_heat or payload_heat_capacity are too "
+            "large or too small for this closed form to compute (overflow); check their magnitudes "
+            "and units"
+        )
+    return scalar_or_array(result)
+
+
+def _start_state(cap, tpc, cap_c, ts, tmax):
+    """Inside node when packed: energy above solid-at-phase-change, temperature, region."""
     e0 = cap_c * (ts - tpc)
     energy = np.clip(e0, 0.0, cap)
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
@@ -304,10 +441,210 @@ def hold_time(
     region = np.where(e0 < 0, -1, np.where(e0 >= cap, 1, 0))
     t_spent = np.where(e0 >= cap, 0.0, np.inf)
     t_over = np.where(temp > tmax, 0.0, np.inf)
-    tau = cap_c / ua
+    return e0, energy, temp, region, t_spent, t_over
 
+
+def _latent_scan(times, temps, p, e0, ua, cap):
+    """Cumulative-energy scan of variants that start melting at one phase-change temperature.
+
+    While the coolant changes phase the node stays at ``p`` and its melted
+    energy is :math:`H(t) = H_0 + UA\\,S(t)` with the one cumulative sum
+    :math:`S(t_i) = \\sum_{j<i} (T_j - p)\\,\\Delta t_j` over the profile, the
+    same for every variant. The first segment where :math:`H` reaches the
+    latent capacity (spent) or 0 (fully refrozen) follows from running
+    maxima and minima of :math:`S` by binary search.
+
+    Returns the spent time (``inf`` if not in a finite segment nor the last
+    one), the segment index of the spent and refrozen events (``n_seg`` if
+    none), and the energies at every segment start ``H_0 + UA S_i`` as a
+    function.
+    """
     n_seg = times.size
-    for i in range(n_seg):
+    s = np.zeros(n_seg)
+    if n_seg > 1:
+        s[1:] = np.cumsum((temps[:-1] - p) * np.diff(times))
+    run_max = np.maximum.accumulate(s[1:])  # over the segment ends only
+    run_min = np.minimum.accumulate(s[1:])
+    thr_spent = (cap - e0) / ua  # S at which H = cap, > 0
+    thr_frozen = -e0 / ua  # S at which H = 0, <= 0
+    # boundary index j >= 1 where the event has happened by times[j]: segment j - 1
+    j_sp = np.searchsorted(run_max, thr_spent, side="left") + 1
+    j_fr = np.searchsorted(-run_min, -thr_frozen, side="left") + 1
+    seg_sp = np.where(j_sp < n_seg, j_sp - 1, n_seg)
+    seg_fr = np.where(j_fr < n_seg, j_fr - 1, n_seg)
+    # the last (endless) segment: spent there if it warms, frozen if it cools
+    rate_last = temps[-1] - p
+    seg_sp = np.where((seg_sp == n_seg) & (seg_fr == n_seg) & (rate_last > 0), n_seg - 1, seg_sp)
+    seg_fr = np.where((seg_sp == n_seg) & (seg_fr == n_seg) & (rate_last < 0), n_seg - 1, seg_fr)
+    k = np.minimum(seg_sp, n_seg - 1)
+    h_k = e0 + ua * s[k]
+    with np.errstate(divide="ignore", invalid="ignore"):
+        t_sp = times[k] + (cap - h_k) / (ua * (temps[k] - p))
+    t_sp = np.where(seg_sp < seg_fr, t_sp, np.inf)
+    return t_sp, seg_sp, seg_fr, s
+
+
+def _warm_after_spent(times, temps, t_spent, seg_spent, tpc, tau, tmax):
+    """First time the lumped node passes ``tmax`` after the coolant is spent.
+
+    From the spent time the node (at ``tpc``) relaxes towards each
+    segment's ambient, :math:`T_{end} = T_a + (T - T_a)\\,e^{-\\Delta t/\\tau}`,
+    and passes ``tmax`` at :math:`\\tau \\ln\\frac{T_a - T}{T_a - T_{max}}`. This
+    holds until a segment colder than ``tpc`` (the coolant could refreeze).
+
+    Returns the crossing time (``inf`` if none before a cold segment or for
+    ever), the index of that cold segment (``n_seg`` if none) and the node
+    temperature at its start.
+    """
+    n_seg = times.size
+    cold_idx = np.flatnonzero(temps < tpc)
+    # first cold segment after each variant's spent segment
+    k = np.searchsorted(cold_idx, seg_spent, side="right")
+    padded = np.append(cold_idx, n_seg)
+    seg_cold = padded[k]
+    temp = np.full(t_spent.shape, float(tpc))
+    t_x = np.full(t_spent.shape, np.inf)
+    ends = np.append(times[1:], np.inf)
+    order = np.argsort(seg_spent, kind="stable")  # variants join as their coolant is spent
+    joined = 0
+    rem = np.empty(0, dtype=np.int64)
+    for i in range(int(seg_spent.min()), n_seg):
+        n_join = int(np.searchsorted(seg_spent[order], i, side="right"))
+        if n_join > joined:
+            new = order[joined:n_join]
+            rem = np.concatenate([rem, new[seg_cold[new] > i]])
+            joined = n_join
+        rem = rem[seg_cold[rem] > i]
+        if rem.size == 0:
+            if joined == order.size:
+                break
+            continue
+        ta = temps[i]
+        tr, tm, tt = tau[rem], tmax[rem], temp[rem]
+        t0 = np.maximum(times[i], t_spent[rem])
+        with np.errstate(all="ignore"):
+            if ta > tm.min():
+                tx = t0 + tr * np.log((ta - tt) / (ta - tm))
+                hit = (ta > tm) & (tx <= ends[i])
+                if hit.any():
+                    t_x[rem[hit]] = np.maximum(tx[hit], t0[hit])
+            decay = np.where(tr > 0, np.exp(-(ends[i] - t0) / np.where(tr > 0, tr, 1.0)), 0.0)
+            temp[rem] = ta + (tt - ta) * decay
+        if ta > tm.min() and hit.any():
+            rem = rem[~hit]
+    return t_x, seg_cold, temp
+
+
+def _hold_scan(ua, times, temps, cap, tpc, cap_c, ts, tmax, want_max):
+    """Hold time of :func:`hold_time`: the scan where it is exact, else the segment solution.
+
+    A variant packed within its phase change (``0 <= C (T_s - T_pc) < m L``)
+    is solved by :func:`_latent_scan` up to its first event. Spent before
+    any full refreezing: done (for the coolant-spent time). Otherwise, and
+    for the payload limit (exponential warming after the coolant is spent),
+    :func:`_hold_segments` carries on from the segment of the first event,
+    starting from the scanned state. Variants packed outside the phase
+    change start the segment solution at 0.
+    """
+    shape = ua.shape
+    ua, cap, tpc, cap_c, ts, tmax = (np.ravel(x) for x in (ua, cap, tpc, cap_c, ts, tmax))
+    e0, energy, temp, region, t_spent, t_over = _start_state(cap, tpc, cap_c, ts, tmax)
+    n_seg = times.size
+    result = np.full(ua.size, np.inf)
+    state = temp + energy
+    start_seg = np.zeros(ua.size, dtype=np.int64)
+    latent = region == 0
+    scans = []
+    for p in np.unique(tpc[latent]):
+        sel = np.flatnonzero(latent & (tpc == p))
+        t_sp, seg_sp, seg_fr, s = _latent_scan(times, temps, p, e0[sel], ua[sel], cap[sel])
+        first = np.minimum(seg_sp, seg_fr)
+        start_seg[sel] = np.minimum(first, n_seg - 1)
+        result[sel] = t_sp
+        if want_max:
+            done = first >= n_seg  # never spent nor refrozen: stays at p for ever
+            spent = seg_sp < seg_fr
+            if spent.any():
+                # warming after the coolant is spent, up to the next cold segment
+                w = sel[spent]
+                t_x, seg_c, temp_c = _warm_after_spent(
+                    times, temps, t_sp[spent], seg_sp[spent], p, cap_c[w] / ua[w], tmax[w]
+                )
+                found = np.isfinite(t_x) | (seg_c >= n_seg)
+                t_over[w] = np.minimum(t_over[w], t_x)
+                done[spent] = found
+                # not found before a cold segment: the segment solution carries on there
+                again = ~found
+                start_seg[w[again]] = -2 - seg_c[again]  # marked; handled below
+                temp[w[again]] = temp_c[again]
+        else:
+            done = (seg_sp < seg_fr) | (first >= n_seg)
+        start_seg[sel[done]] = -1
+        scans.append((sel, s))
+    warm = start_seg <= -2  # spent and warming when a cold segment begins
+    if warm.any():
+        seg_w = -2 - start_seg[warm]
+        region[warm], energy[warm], t_spent[warm] = 1, cap[warm], result[warm]
+        start_seg[warm] = seg_w
+    slow = start_seg >= 0
+    if want_max:
+        result = np.where(slow, result, t_over)
+    if not slow.any():
+        return result.reshape(shape), state.reshape(shape)
+    # one segment solution for all the others, from the earliest segment any of
+    # them needs; a scanned variant is still melting there, at the scanned energy
+    i0 = 0 if np.any(slow & ~latent) else int(start_seg[slow].min())
+    if np.any(warm & (start_seg > i0)):
+        # a warming variant joins at its own cold segment only: run it separately
+        late = warm & (start_seg > i0)
+        for j in np.unique(start_seg[late]):
+            sel = np.flatnonzero(late & (start_seg == j))
+            r, _ = _hold_segments(
+                ua[sel], times, temps, cap[sel], energy[sel], temp[sel], region[sel],
+                t_spent[sel], t_over[sel], cap_c[sel] / ua[sel], tpc[sel], tmax[sel],
+                cap_c[sel], want_max, first=int(j),
+            )
+            result[sel] = r
+        slow = slow & ~late
+        if not slow.any():
+            return result.reshape(shape), state.reshape(shape)
+        i0 = 0 if np.any(slow & ~latent) else int(start_seg[slow].min())
+    for sel, s in scans:
+        keep = ~warm[sel]
+        energy[sel[keep]] = e0[sel[keep]] + ua[sel[keep]] * s[i0]
+    idx = np.flatnonzero(slow)
+    r, st = _hold_segments(
+        ua[idx],
+        times,
+        temps,
+        cap[idx],
+        energy[idx],
+        temp[idx],
+        region[idx],
+        t_spent[idx],
+        t_over[idx],
+        cap_c[idx] / ua[idx],
+        tpc[idx],
+        tmax[idx],
+        cap_c[idx],
+        want_max,
+        first=i0,
+    )
+    result[idx] = r
+    state[idx] = st
+    return result.reshape(shape), state.reshape(shape)
+
+
+def _hold_segments(
+    ua, times, temps, cap, energy, temp, region, t_spent, t_over, tau, tpc, tmax, cap_c, want_max,
+    first=0,
+):
+    """The segment-by-segment solution of :func:`hold_time` (result, final state).
+
+    Starts at segment ``first`` from the given state (the state at ``times[first]``).
+    """
+    n_seg = times.size
+    for i in range(first, n_seg):
         t_now = np.full(ua.shape, times[i])
         left = np.full(ua.shape, times[i + 1] - times[i] if i + 1 < n_seg else np.inf)
         ta = temps[i]
@@ -364,7 +701,10 @@ def hold_time(
             if want_max:
                 jump = (region == 1) & (cap_c == 0) & (ta > tmax) & np.isinf(t_over) & (left > 0)
                 t_over = np.where(jump, t_now, t_over)
-    return scalar_or_array(t_over if want_max else t_spent)
+        # every variant has its first event: later segments cannot change it
+        if np.all(np.isfinite(t_over if want_max else t_spent)):
+            break
+    return (t_over if want_max else t_spent), temp + energy
 
 
 # ---------------------------------------------------------------------------
@@ -420,7 +760,29 @@ class HoldSimulation:
 
 
 def _limit(name: str, value, default: float) -> np.ndarray:
-    return np.asarray(default) if value is None else positive(name, value, "K")
+    return np.asarray(default) if value is None else _temperature(name, value)
+
+
+def _check_state(h_new, tp_new, cs, t_end, shape) -> None:
+    """Stop with a named error rather than return NaN or an unphysical coolant state."""
+    cold = (h_new < 0) & (cs == 0)
+    if np.any(cold):
+        i = int(np.argmax(cold))
+        where = f"variant {np.unravel_index(i, shape)}" if shape else "the run"
+        raise ValueError(
+            f"specific_heat_solid: 0 J/(kg·K) in {where}, but its coolant cools below its phase "
+            f"change by {t_end / 3600:.2f} h (the ambient or the payload is colder); give the "
+            "solid's specific heat > 0 [J/(kg·K)], or None for the coolants table's value"
+        )
+    bad = ~(np.isfinite(h_new) & np.isfinite(tp_new))
+    if np.any(bad):
+        i = int(np.argmax(bad))
+        where = f"variant {np.unravel_index(i, shape)}" if shape else "the run"
+        raise ValueError(
+            f"simulate_hold: the state of {where} is no longer finite at {t_end / 3600:.2f} h; "
+            "the inputs (conductance, coolant_mass, payload_heat_capacity, coupling_conductance, "
+            "specific heats) are outside the range this model can compute"
+        )
 
 
 def simulate_hold(
@@ -432,8 +794,8 @@ def simulate_hold(
     duration: float,
     time_step: float = 300.0,
     *,
-    specific_heat_solid: ArrayLike = 0.0,
-    specific_heat_liquid: ArrayLike = 0.0,
+    specific_heat_solid: ArrayLike | None = None,
+    specific_heat_liquid: ArrayLike | None = None,
     payload_heat_capacity: ArrayLike = 1000.0,
     coupling_conductance: ArrayLike = 5.0,
     coolant_wall_fraction: ArrayLike = 1.0,
@@ -444,6 +806,9 @@ def simulate_hold(
     record_every: int = 1,
     progress: Callable[[float], None] | None = None,
     cancel: Callable[[], bool] | None = None,
+    max_steps: int = MAX_STEPS,
+    max_cells: int = MAX_CELLS,
+    max_stored: int = MAX_STORED,
 ) -> HoldSimulation:
     """Time-stepped hold of many shipper variants at once (two-node energy balance).
 
@@ -464,10 +829,17 @@ def simulate_hold(
     time_step : float
         Step length; the step is stable for any length, accuracy wants it
         short against the payload node's time constant. [s]
-    specific_heat_solid, specific_heat_liquid : float or array
-        Coolant specific heats below and above the phase change; 0 for a
-        liquid that is not there (dry ice: the gas leaves, the coolant node
-        disappears once spent). [J/(kg·K)]
+    specific_heat_solid, specific_heat_liquid : float or array, optional
+        Coolant specific heats below and above the phase change. ``None``
+        (default): the coolants table's values for this coolant
+        (:func:`workbench.coolants.specific_heats_for`: the row with the same
+        phase-change temperature and latent heat, else ice and liquid water).
+        A liquid specific heat of 0 means no liquid (dry ice: the gas leaves,
+        the coolant node disappears once spent; give 0 for a subliming
+        coolant that is not in the table). A solid specific heat of 0 is
+        refused once a coolant would cool below its phase change (the run
+        stops with a ``ValueError`` naming the variant and time).
+        [J/(kg·K)]
     payload_heat_capacity : float or array
         Heat capacity of payload + inside air + inner packaging, > 0. [J/K]
     coupling_conductance : float or array
@@ -493,6 +865,14 @@ def simulate_hold(
     cancel : callable, optional
         Checked as often; when it returns True the run raises
         :class:`workbench._checks.Cancelled`.
+    max_steps, max_cells, max_stored : int
+        Work limits, checked before computing: time steps per variant
+        (default :data:`MAX_STEPS`), variants × time steps
+        (:data:`MAX_CELLS`) and variants × stored times per series
+        (:data:`MAX_STORED`). Beyond them the call raises ``ValueError``
+        saying how to coarsen (a larger ``time_step``, a shorter
+        ``duration``, fewer variants per call, a larger ``record_every``);
+        raise a limit here only on purpose.
 
     Returns
     -------
@@ -541,21 +921,38 @@ def simulate_hold(
     ['coolant spent', 'coolant spent']
     """
     times_p, temps_p = ambient_profile(t_ambient)
-    dur = float(positive("duration", duration, "s"))
-    dt = float(positive("time_step", time_step, "s"))
-    if not isinstance(record_every, int | np.integer) or record_every < 1:
-        raise ValueError(f"record_every: must be a positive integer (got {record_every!r})")
-    ua = positive("conductance", conductance, "W/K")
-    m = positive("coolant_mass", coolant_mass, "kg")
-    lat = positive("latent_heat", latent_heat, "J/kg")
-    tpc = positive("t_phase_change", t_phase_change, "K")
-    cs = nonnegative("specific_heat_solid", specific_heat_solid, "J/(kg·K)")
-    cl = nonnegative("specific_heat_liquid", specific_heat_liquid, "J/(kg·K)")
-    cp_ = positive("payload_heat_capacity", payload_heat_capacity, "J/K")
-    g = positive("coupling_conductance", coupling_conductance, "W/K")
+    dur = _scalar("duration", duration, "s")
+    dt = _scalar("time_step", time_step, "s")
+    record_every = _count("record_every", record_every, "store every n-th step")
+    max_steps = _count("max_steps", max_steps, "time steps per variant")
+    max_cells = _count("max_cells", max_cells, "variants × time steps")
+    max_stored = _count("max_stored", max_stored, "variants × stored times")
+    ua = _values("conductance", conductance, "W/K")
+    m = _values("coolant_mass", coolant_mass, "kg")
+    lat = _values("latent_heat", latent_heat, "J/kg")
+    tpc = _temperature("t_phase_change", t_phase_change)
+    cs_table = cl_table = None
+    if specific_heat_solid is None or specific_heat_liquid is None:
+        from workbench.coolants import specific_heats_for
+
+        cs_table, cl_table = specific_heats_for(tpc, lat)
+    cs = (
+        cs_table
+        if specific_heat_solid is None
+        else _values("specific_heat_solid", specific_heat_solid, "J/(kg·K)", nonnegative)
+    )
+    cl = (
+        cl_table
+        if specific_heat_liquid is None
+        else _values("specific_heat_liquid", specific_heat_liquid, "J/(kg·K)", nonnegative)
+    )
+    cp_ = _values("payload_heat_capacity", payload_heat_capacity, "J/K")
+    g = _values("coupling_conductance", coupling_conductance, "W/K")
     phi = in_range("coolant_wall_fraction", coolant_wall_fraction, 0.0, 1.0, "-")
-    tc0 = tpc if t_coolant_start is None else positive("t_coolant_start", t_coolant_start, "K")
-    tp0 = tpc if t_payload_start is None else positive("t_payload_start", t_payload_start, "K")
+    if phi.size == 0:
+        raise ValueError("coolant_wall_fraction: empty; give at least one value [-]")
+    tc0 = tpc if t_coolant_start is None else _temperature("t_coolant_start", t_coolant_start)
+    tp0 = tpc if t_payload_start is None else _temperature("t_payload_start", t_payload_start)
     tmin = _limit("t_payload_min", t_payload_min, -np.inf)
     tmax = _limit("t_payload_max", t_payload_max, np.inf)
     arrays = broadcast(
@@ -574,6 +971,33 @@ def simulate_hold(
         t_payload_max=tmax,
     )
     shape = arrays[0].shape
+    n = int(np.prod(shape, dtype=np.int64))
+    # work limits, before any allocation sized by them
+    steps_f = dur / dt
+    if not steps_f - 1e-9 <= max_steps:
+        raise ValueError(
+            f"time_step: duration {dur:g} s / time_step {dt:g} s = {steps_f:,.0f} time steps asked; "
+            f"the limit is {max_steps:,} per variant (MAX_STEPS). Coarsen: a time_step of at least "
+            f"{dur / max_steps:.4g} s or a shorter duration; or raise the limit on purpose with "
+            "max_steps=..."
+        )
+    steps_asked = max(1, math.ceil(steps_f - 1e-9))
+    if n * steps_asked > max_cells:
+        raise ValueError(
+            f"conductance, coolant_mass, ...: {n:,} variants × {steps_asked:,} time steps = "
+            f"{n * steps_asked:,} cells asked; the limit is {max_cells:,} (MAX_CELLS). Split the "
+            "variants over several calls, use a larger time_step or a shorter duration; or raise "
+            "the limit on purpose with max_cells=..."
+        )
+    stored_asked = n * (steps_asked // record_every + 2)
+    if stored_asked > max_stored:
+        raise ValueError(
+            f"record_every: {n:,} variants × {steps_asked // record_every + 2:,} stored times = "
+            f"{stored_asked:,} values per series; the limit is {max_stored:,} (MAX_STORED). Store "
+            f"fewer times (record_every={max(1, -(-stored_asked // max_stored)) * record_every} or "
+            "more; events are still found on every step) or raise the limit on purpose with "
+            "max_stored=..."
+        )
     ua, m, lat, tpc, cs, cl, cp_, g, phi, tc0, tp0, tmin, tmax = (
         np.array(a, float).ravel() for a in arrays
     )
@@ -590,7 +1014,7 @@ def simulate_hold(
             "t_coolant_start: above the phase change needs specific_heat_liquid > 0 [J/(kg·K)]"
         )
 
-    n_steps = int(np.ceil(dur / dt - 1e-9))
+    n_steps = steps_asked
     edges = np.minimum(np.arange(n_steps + 1) * dt, dur)
     integ = _integral(times_p, temps_p, edges)
     ta_steps = np.diff(integ) / np.diff(edges)
@@ -636,7 +1060,9 @@ def simulate_hold(
     for k in range(n_steps):
         if k % every == 0 and k:
             if cancel is not None and cancel():
-                raise Cancelled(f"hold-time run cancelled at {edges[k] / 3600:.1f} h of {dur / 3600:.1f} h")
+                raise Cancelled(
+                    f"hold-time run cancelled at {edges[k] / 3600:.1f} h of {dur / 3600:.1f} h"
+                )
             if progress is not None:
                 progress(k / n_steps)
         step = edges[k + 1] - edges[k]
@@ -660,48 +1086,52 @@ def simulate_hold(
         # (2) sensible coolant: exact two-node solution
         sens = ~(latent | gone)
         if np.any(sens):
-            c_cs = np.where(sens, c_c, 1.0)
-            m11, m12 = -a / cp_, g_eff / cp_
-            m21, m22 = g_eff / c_cs, -b / c_cs
-            det = m11 * m22 - m12 * m21
-            f1 = wp * ta / cp_
-            f2 = wc * ta / c_cs
-            # steady state x* = -M^-1 f
-            xs1 = -(m22 * f1 - m12 * f2) / det
-            xs2 = -(-m21 * f1 + m11 * f2) / det
-            y1, y2 = tp - xs1, tc - xs2
-            s = 0.5 * (m11 + m22)
-            q = np.sqrt(np.maximum(s * s - det, 0.0))
-            l1, l2 = s + q, s - q
-            e1, e2 = np.exp(l1 * step), np.exp(l2 * step)
-            small = q * step < 1e-8
-            qs = np.where(small, 1.0, q)
-            sh = np.where(small, step * np.exp(s * step), (e1 - e2) / (2 * qs))  # e^{st} sinh(qt)/q
-            ch = 0.5 * (e1 + e2)  # e^{st} cosh(qt)
-            # E = e^{M t} = (ch - s*sh) I + sh M
-            d0 = ch - s * sh
-            e11, e12, e21, e22 = d0 + sh * m11, sh * m12, sh * m21, d0 + sh * m22
-            z1 = e11 * y1 + e12 * y2
-            z2 = e21 * y1 + e22 * y2
-            # integral of y: M^-1 (E - I) y
-            w1, w2 = z1 - y1, z2 - y2
-            iy1 = (m22 * w1 - m12 * w2) / det
-            iy2 = (-m21 * w1 + m11 * w2) / det
-            tp1_s = xs1 + z1
-            tc1_s = xs2 + z2
-            tpbar_s = xs1 + iy1 / step
-            tcbar_s = xs2 + iy2 / step
-            q_c_s = c_cs * (tc1_s - tc)
-            tp1 = np.where(sens, tp1_s, tp1_fix)
-            q_c = np.where(sens, q_c_s, q_c_fix)
-            tpbar = np.where(sens, tpbar_s, tpbar_fix)
-            tcbar = np.where(sens, tcbar_s, tc_fix)
+            with np.errstate(over="ignore", invalid="ignore", divide="ignore"):
+                c_cs = np.where(sens, c_c, 1.0)
+                m11, m12 = -a / cp_, g_eff / cp_
+                m21, m22 = g_eff / c_cs, -b / c_cs
+                det = m11 * m22 - m12 * m21
+                f1 = wp * ta / cp_
+                f2 = wc * ta / c_cs
+                # steady state x* = -M^-1 f
+                xs1 = -(m22 * f1 - m12 * f2) / det
+                xs2 = -(-m21 * f1 + m11 * f2) / det
+                y1, y2 = tp - xs1, tc - xs2
+                s = 0.5 * (m11 + m22)
+                q = np.sqrt(np.maximum(s * s - det, 0.0))
+                l1, l2 = s + q, s - q
+                e1, e2 = np.exp(l1 * step), np.exp(l2 * step)
+                small = q * step < 1e-8
+                qs = np.where(small, 1.0, q)
+                sh = np.where(
+                    small, step * np.exp(s * step), (e1 - e2) / (2 * qs)
+                )  # e^{st} sinh(qt)/q
+                ch = 0.5 * (e1 + e2)  # e^{st} cosh(qt)
+                # E = e^{M t} = (ch - s*sh) I + sh M
+                d0 = ch - s * sh
+                e11, e12, e21, e22 = d0 + sh * m11, sh * m12, sh * m21, d0 + sh * m22
+                z1 = e11 * y1 + e12 * y2
+                z2 = e21 * y1 + e22 * y2
+                # integral of y: M^-1 (E - I) y
+                w1, w2 = z1 - y1, z2 - y2
+                iy1 = (m22 * w1 - m12 * w2) / det
+                iy2 = (-m21 * w1 + m11 * w2) / det
+                tp1_s = xs1 + z1
+                tc1_s = xs2 + z2
+                tpbar_s = xs1 + iy1 / step
+                tcbar_s = xs2 + iy2 / step
+                q_c_s = c_cs * (tc1_s - tc)
+                tp1 = np.where(sens, tp1_s, tp1_fix)
+                q_c = np.where(sens, q_c_s, q_c_fix)
+                tpbar = np.where(sens, tpbar_s, tpbar_fix)
+                tcbar = np.where(sens, tcbar_s, tc_fix)
         else:
             tp1, q_c, tpbar, tcbar = tp1_fix, q_c_fix, tpbar_fix, tc_fix
         # heat through the wall from the step-mean node temperatures (booked
         # independently of the stored energy, so a conservation check can fail)
         q_wall = (wp * (ta - tpbar) + wc * (ta - tcbar)) * step
         h_new = h + q_c / m
+        _check_state(h_new, tp1, cs, edges[k + 1], shape)
         # events
         crossed = np.isinf(t_spent) & (h < lat) & (h_new >= lat)
         with np.errstate(divide="ignore", invalid="ignore"):
@@ -768,6 +1198,10 @@ def _bisect(
     return hi if increasing else lo
 
 
+#: Bracket of the conductance search. [W/K]
+_UA_MIN, _UA_MAX = 1e-9, 1e12
+
+
 def _impossible(
     bad: np.ndarray, result: np.ndarray, on_impossible: str, message: str
 ) -> np.ndarray:
@@ -822,6 +1256,17 @@ def _max_melted_energy(ua, times, temps, tpc, cap_c, ts, duration) -> np.ndarray
     return e_max
 
 
+def _safety_factor(value) -> np.ndarray:
+    sf = _values("safety_factor", value, "-", finite)
+    bad = (sf < 1.0) | (sf > 10.0)
+    if np.any(bad):
+        raise ValueError(
+            f"safety_factor: must lie in [1, 10] [-] (a multiplier: 1.2 for 20 % extra), got "
+            f"{float(np.atleast_1d(sf)[np.atleast_1d(bad)][0]):g}"
+        )
+    return sf
+
+
 def coolant_mass_for_duration(
     duration: ArrayLike,
     conductance: ArrayLike,
@@ -852,7 +1297,8 @@ def coolant_mass_for_duration(
     t_payload_start : float or array, optional
         Payload temperature when packed (default: phase change). [K]
     safety_factor : float or array
-        Multiplier on the mass, >= 1 (common practice: 1.1–1.5). [-]
+        Multiplier on the mass, 1–10 (common practice: 1.1–1.5; 1.2 for 20 %
+        extra, so a percentage typed as 20 is refused). [-]
     on_impossible : str
         ``"raise"`` or ``"nan"``; kept for symmetry with the other sizing
         functions (some mass always lasts for the spent-coolant criterion).
@@ -860,7 +1306,9 @@ def coolant_mass_for_duration(
     Returns
     -------
     float or array
-        Coolant mass. [kg]
+        Coolant mass [kg] that holds the duration when fed back:
+        ``hold_time(conductance, t_ambient, mass, ...) >= duration``. 0.0
+        where no coolant melts within the duration (no coolant needed).
 
     Notes
     -----
@@ -872,6 +1320,10 @@ def coolant_mass_for_duration(
 
     .. math:: m = f_s\\, UA\\,(T_a - T_{pc})\\,t / L
 
+    Where the coolant would be spent exactly at the end of a warm spell (a
+    tie) or round-off puts the closed form a hair short, the mass is raised
+    by a few units in the last place until it holds.
+
     References
     ----------
     Energy balance (``incropera7``, §1.3); safety factor: common practice.
@@ -881,15 +1333,13 @@ def coolant_mass_for_duration(
     >>> round(coolant_mass_for_duration(48 * 3600.0, 0.5, 303.15, 333550.0, 273.15), 4)
     7.7709
     """
-    t = positive("duration", duration, "s")
-    ua = positive("conductance", conductance, "W/K")
-    lat = positive("latent_heat", latent_heat, "J/kg")
-    tpc = positive("t_phase_change", t_phase_change, "K")
-    cap_c = nonnegative("payload_heat_capacity", payload_heat_capacity, "J/K")
-    ts = tpc if t_payload_start is None else positive("t_payload_start", t_payload_start, "K")
-    sf = finite("safety_factor", safety_factor, "-")
-    if np.any(sf < 1.0):
-        raise ValueError("safety_factor: must be >= 1 [-]")
+    t = _values("duration", duration, "s")
+    ua = _values("conductance", conductance, "W/K")
+    lat = _values("latent_heat", latent_heat, "J/kg")
+    tpc = _temperature("t_phase_change", t_phase_change)
+    cap_c = _values("payload_heat_capacity", payload_heat_capacity, "J/K", nonnegative)
+    ts = tpc if t_payload_start is None else _temperature("t_payload_start", t_payload_start)
+    sf = _safety_factor(safety_factor)
     if on_impossible not in ("raise", "nan"):
         raise ValueError(f"on_impossible: unknown {on_impossible!r}; valid: ['raise', 'nan']")
     t, ua, lat, tpc, cap_c, ts, sf = (
@@ -905,8 +1355,34 @@ def coolant_mass_for_duration(
         )
     )
     times, temps = ambient_profile(t_ambient)
-    e_max = _max_melted_energy(ua, times, temps, tpc, cap_c, ts, t)
-    m = e_max / lat
+    with np.errstate(all="ignore"):
+        e_max = _max_melted_energy(ua, times, temps, tpc, cap_c, ts, t)
+        m = e_max / lat
+    if not np.all(np.isfinite(m * sf)):
+        raise ValueError(
+            "coolant_mass_for_duration: duration, conductance or payload_heat_capacity are too "
+            "large for a finite coolant mass (overflow); check their magnitudes and units"
+        )
+
+    # The exact mass melts completely at the moment of the largest melted
+    # energy: fed back it may be "spent" there (a tie, or round-off). Raise it
+    # by a few ulps at a time until the closed form holds the duration.
+    def holds(mass):
+        return (mass == 0) | (
+            np.asarray(hold_time(ua, (times, temps), mass, lat, tpc, cap_c, ts), float) >= t
+        )
+
+    good = holds(m * sf)
+    bump = 4.0 * np.finfo(float).eps
+    while not np.all(good):
+        if bump > 1e-6:
+            raise ArithmeticError(
+                "coolant_mass_for_duration: the sized mass does not hold the duration when fed back "
+                "to hold_time (internal inconsistency; please report the inputs)"
+            )
+        m = np.where(good, m, m * (1.0 + bump))
+        good = holds(m * sf)
+        bump *= 4.0
     return scalar_or_array(m * sf)
 
 
@@ -939,7 +1415,10 @@ def max_conductance_for_duration(
     Returns
     -------
     float or array
-        Conductance. [W/K]
+        Conductance [W/K] that holds the duration when fed back
+        (``hold_time(conductance, ...) >= duration``); ``inf`` where any
+        conductance up to 1e12 W/K holds (the coolant is not spent within
+        the duration, e.g. an ambient below the phase change).
 
     Notes
     -----
@@ -955,34 +1434,46 @@ def max_conductance_for_duration(
     >>> round(max_conductance_for_duration(48 * 3600.0, 303.15, 2.0, 333550.0, 273.15), 5)
     0.12868
     """
-    t = positive("duration", duration, "s")
+    t = _values("duration", duration, "s")
     times, temps = ambient_profile(t_ambient)
-    m = positive("coolant_mass", coolant_mass, "kg")
-    t, m = (np.array(x, float) for x in broadcast(duration=t, coolant_mass=m))
-    shape = np.broadcast_shapes(
-        t.shape, np.shape(latent_heat), np.shape(t_phase_change), np.shape(payload_heat_capacity)
-    )
-    lo = np.full(shape, 1e-9)
-    hi = np.full(shape, 1e4)
+    m = _values("coolant_mass", coolant_mass, "kg")
+    if on_impossible not in ("raise", "nan"):
+        raise ValueError(f"on_impossible: unknown {on_impossible!r}; valid: ['raise', 'nan']")
 
-    def ok(ua):
-        return (
-            hold_time(
-                ua,
-                (times, temps),
-                m,
-                latent_heat,
-                t_phase_change,
-                payload_heat_capacity,
-                t_payload_start,
-                t_payload_max,
-            )
-            >= t
+    def hold(ua):
+        return hold_time(
+            ua,
+            (times, temps),
+            m,
+            latent_heat,
+            t_phase_change,
+            payload_heat_capacity,
+            t_payload_start,
+            t_payload_max,
         )
 
+    # validates the other arguments and gives the broadcast shape
+    hold_lo = np.asarray(hold(_UA_MIN))
+    shape = broadcast_shape(
+        duration=t, **{"coolant_mass, latent_heat, t_phase_change, ...": hold_lo}
+    )
+
+    def ok(ua):
+        return hold(ua) >= t
+
+    ok_lo = np.broadcast_to(hold_lo >= t, shape)
+    lo = np.full(shape, _UA_MIN)
+    # bracket: widen the upper end while it still holds; holding at
+    # _UA_MAX means no limit (the coolant is never spent in the duration)
+    hi = np.full(shape, 1e4)
+    ok_hi = np.broadcast_to(ok(hi), shape)
+    while np.any(ok_hi & (hi < _UA_MAX)):
+        hi = np.where(ok_hi, np.minimum(hi * 1e4, _UA_MAX), hi)
+        ok_hi = np.broadcast_to(ok(hi), shape)
     g = _bisect(ok, lo, hi, increasing=False)
+    g = np.where(ok_hi, np.inf, g)
     g = _impossible(
-        ~ok(lo),
+        ~ok_lo,
         g,
         on_impossible,
         "duration: not reachable with this coolant even with near-perfect insulation "
@@ -1064,15 +1555,44 @@ def thickness_for_duration(
             on_impossible=on_impossible,
         )
     )
-    d_hi = float(positive("thickness_max", thickness_max, "m"))
-    d_lo = float(positive("thickness_min", thickness_min, "m"))
+    d_hi = _scalar("thickness_max", thickness_max, "m")
+    d_lo = _scalar("thickness_min", thickness_min, "m")
+    if d_hi > 10.0:
+        raise ValueError(f"thickness_max: at most 10 m of insulation [m], got {d_hi:g} m")
     if d_lo >= d_hi:
         raise ValueError("thickness_min: must be below thickness_max [m]")
+    if not callable(conductance_of_thickness):
+        raise TypeError(
+            "conductance_of_thickness: expected a function of the thickness [m] giving the "
+            f"conductance [W/K], got {conductance_of_thickness!r:.60}"
+        )
     lo = np.full(ua_max.shape, d_lo)
     hi = np.full(ua_max.shape, d_hi)
 
+    def ua_of(d):
+        ua = conductance_of_thickness(d)
+        try:
+            ua = np.broadcast_to(np.asarray(ua, float), d.shape)
+        except (TypeError, ValueError):
+            raise ValueError(
+                f"conductance_of_thickness: must return one conductance [W/K] per thickness "
+                f"(shape {d.shape}), got {ua!r:.60}"
+            ) from None
+        if not np.all(np.isfinite(ua) & (ua > 0)):
+            raise ValueError(
+                "conductance_of_thickness: returned a conductance that is not finite and > 0 [W/K] "
+                f"for thicknesses in [{d.min():g}, {d.max():g}] m"
+            )
+        return ua
+
+    if np.any(ua_of(lo) < ua_of(hi)):
+        raise ValueError(
+            "conductance_of_thickness: the conductance must decrease with the thickness (it "
+            f"rises from {d_lo:g} m to {d_hi:g} m)"
+        )
+
     def ok(d):
-        return np.asarray(conductance_of_thickness(d), float) <= ua_max
+        return ua_of(d) <= ua_max
 
     d = _bisect(ok, lo, hi, increasing=True)
     d = np.where(ok(lo), d_lo, d)

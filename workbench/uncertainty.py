@@ -28,7 +28,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from workbench._checks import finite, nonnegative
+from workbench._checks import finite, integer, nonnegative, scalar
 
 __all__ = ["MonteCarloResult", "monte_carlo", "sample_truncated_normal"]
 
@@ -73,7 +73,18 @@ def sample_truncated_normal(nominal, tolerance, size: int, rng: np.random.Genera
     True
     """
     x0 = np.atleast_1d(finite("nominal", nominal))
-    t = np.broadcast_to(nonnegative("tolerance", tolerance), x0.shape)
+    if x0.ndim != 1:
+        raise ValueError(f"nominal: expected a 1-D array (n,), got shape {x0.shape}")
+    t = nonnegative("tolerance", tolerance)
+    try:
+        t = np.broadcast_to(t, x0.shape)
+    except ValueError:
+        raise ValueError(
+            f"tolerance: shape {t.shape} does not broadcast to nominal's shape {x0.shape}"
+        ) from None
+    size = integer("size", size, minimum=0, maximum=10**9)
+    if not isinstance(rng, np.random.Generator):
+        raise TypeError(f"rng: expected a numpy.random.Generator, got {type(rng).__name__}")
     if np.any((t > 0) & (x0 <= 0)):
         raise ValueError("nominal: must be > 0 where a tolerance is given")
     out = np.broadcast_to(x0, (size,) + x0.shape).copy()
@@ -220,24 +231,45 @@ def monte_carlo(
     >>> r.prob_meets.round(2)  # Phi(-0.625) = 0.266, Phi(2.5) = 0.994
     array([0.27, 0.99])
     """
+    if not callable(model):
+        raise TypeError(f"model: expected a callable model(samples), got {type(model).__name__}")
+    if not isinstance(nominal, Mapping) or not nominal:
+        raise ValueError("nominal: expected a non-empty mapping of property name to values")
+    if not isinstance(tolerance, Mapping):
+        raise TypeError(f"tolerance: expected a mapping, got {type(tolerance).__name__}")
     names = list(nominal)
     for name in tolerance:
         if name not in nominal:
             raise ValueError(f"tolerance: unknown property {name!r}; valid: {sorted(names)}")
-    n_samples = int(n_samples)
-    if n_samples < 1:
-        raise ValueError(f"n_samples: must be >= 1, got {n_samples}")
-    chunk_size = max(1, int(chunk_size))
+    n_samples = integer("n_samples", n_samples, minimum=1, maximum=10**9)
+    chunk_size = integer("chunk_size", chunk_size, minimum=1, maximum=10**9)
+    max_bytes = integer("max_bytes", max_bytes, minimum=1)
+    limit_criterion = integer("limit_criterion", limit_criterion, minimum=0)
+    if limit is not None:
+        limit = scalar("limit", limit)
     if limit_direction not in ("max", "min"):
         raise ValueError(f"limit_direction: unknown {limit_direction!r}; valid: ['max', 'min']")
-    gen = rng if isinstance(rng, np.random.Generator) else np.random.default_rng(rng)
-    nom = {k: np.atleast_1d(finite(k, v)) for k, v in nominal.items()}
+    if isinstance(rng, np.random.Generator):
+        gen = rng
+    else:
+        gen = np.random.default_rng(integer("rng", rng, minimum=0))
+    nom = {k: np.atleast_1d(finite(f"nominal[{k!r}]", v)) for k, v in nominal.items()}
+    for k, v in nom.items():
+        if v.ndim != 1 or v.shape[0] == 0:
+            raise ValueError(f"nominal[{k!r}]: expected a scalar or one value per candidate, got shape {v.shape}")
     n_cand = max(v.shape[0] for v in nom.values())
     for k, v in nom.items():
-        if v.ndim != 1 or v.shape[0] not in (1, n_cand):
-            raise ValueError(f"{k}: expected a scalar or {n_cand} values, got shape {v.shape}")
+        if v.shape[0] not in (1, n_cand):
+            raise ValueError(f"nominal[{k!r}]: expected a scalar or {n_cand} values, got shape {v.shape}")
     nom = {k: np.broadcast_to(v, (n_cand,)) for k, v in nom.items()}
-    tol = {k: np.broadcast_to(nonnegative(k, v), (n_cand,)) for k, v in tolerance.items()}
+    tol = {}
+    for k, v in tolerance.items():
+        t = nonnegative(f"tolerance[{k!r}]", v)
+        if t.ndim > 1 or t.size not in (1, n_cand):
+            raise ValueError(f"tolerance[{k!r}]: expected a scalar or {n_cand} values, got shape {t.shape}")
+        tol[k] = np.broadcast_to(t, (n_cand,))
+        if np.any((tol[k] > 0) & (nom[k] <= 0)):
+            raise ValueError(f"nominal[{k!r}]: must be > 0 where a tolerance is given")
 
     stored: np.ndarray | None = None
     best_counts = None
@@ -256,13 +288,7 @@ def monte_carlo(
                 smp[k] = sample_truncated_normal(nom[k], tol[k], m, gen)
             else:
                 smp[k] = np.broadcast_to(nom[k], (m, n_cand))
-        y = np.asarray(model(smp), dtype=float)
-        if y.ndim == 2:
-            y = y[:, :, None]
-        if y.ndim != 3 or y.shape[:2] != (m, n_cand):
-            raise ValueError(
-                f"model: expected an array ({m}, {n_cand}[, n_criteria]), got {y.shape}"
-            )
+        y = _model_output(model, smp, m, n_cand, done)
         if stored is None:
             n_crit = y.shape[2]
             need = n_samples * n_cand * n_crit * 8
@@ -277,6 +303,11 @@ def monte_carlo(
             if len(dirs) != n_crit:
                 raise ValueError(f"directions: expected {n_crit} entries, got {len(dirs)}")
             signs = np.array([_sign(d) for d in dirs])
+            if limit is not None and limit_criterion >= n_crit:
+                raise ValueError(
+                    f"limit_criterion: must be one of {list(range(n_crit))} "
+                    f"(the model returns {n_crit} criteria), got {limit_criterion}"
+                )
         stored[done : done + m] = y
         oriented = y * signs
         best = oriented.min(axis=1, keepdims=True)
@@ -310,6 +341,27 @@ def monte_carlo(
         prob_meets=prob_meets,
         prob_meets_se=se,
     )
+
+
+def _model_output(model, smp, m: int, n_cand: int, done: int) -> np.ndarray:
+    """The model's criteria as (m, n_cand, n_criteria); NaN or infinity names the sample."""
+    try:
+        y = np.asarray(model(smp), dtype=float)
+    except (TypeError, ValueError) as exc:
+        raise ValueError(f"model: samples {done}–{done + m - 1}: {exc}") from exc
+    if y.ndim == 2:
+        y = y[:, :, None]
+    if y.ndim != 3 or y.shape[:2] != (m, n_cand):
+        raise ValueError(f"model: expected an array ({m}, {n_cand}[, n_criteria]), got {y.shape}")
+    bad = ~np.isfinite(y)
+    if np.any(bad):
+        s, c, k = (int(i[0]) for i in np.nonzero(bad))
+        raise ValueError(
+            f"model: returned {y[s, c, k]} (not finite) for candidate {c}, criterion {k} at "
+            f"sample {done + s}; nominal values there: "
+            + ", ".join(f"{n}={float(v[s, c]):.6g}" for n, v in smp.items())
+        )
+    return y
 
 
 def _sign(direction: str) -> float:

@@ -65,6 +65,8 @@ __all__ = [
     "SYSTEMS",
     "CURRENCIES",
     "KINDS",
+    "EMISSIVITY",
+    "FRACTION",
     "Kind",
     "check_system",
     "check_kind",
@@ -144,6 +146,11 @@ class Kind:
         An SI and a US-customary input example.
     title : str
         Default axis title, e.g. ``"Thermal conductivity"``.
+    domain : str
+        Physical domain of an input of this kind, enforced by :func:`parse`:
+        ``"positive"`` (> 0 in SI), ``"nonnegative"`` (>= 0 in SI) or ``"any"``
+        (signed, e.g. a temperature difference). An absolute temperature is
+        ``"positive"``: above 0 K.
     """
 
     name: str
@@ -152,6 +159,7 @@ class Kind:
     noun: str
     examples: tuple[str, str]
     title: str
+    domain: str = "any"
 
     @property
     def dimensionality(self) -> pint.util.UnitsContainer:
@@ -180,7 +188,43 @@ def _kind(
         noun=noun,
         examples=examples,
         title=title,
+        domain=_DOMAINS.get(name, "any"),
     )
+
+
+# Physical domain of each kind (see Kind.domain); kinds not named here are signed ("any").
+# A heat flux, a power, an energy and a temperature difference carry a sign (direction);
+# the studies bound them where a sign is meaningless (a heat budget must be > 0).
+_DOMAINS = {
+    "length": "positive",
+    "thickness": "positive",
+    "temperature": "positive",
+    "conductivity": "positive",
+    "resistance": "nonnegative",
+    "u_value": "positive",
+    "heat_transfer_coefficient": "positive",
+    "area": "positive",
+    "volume": "positive",
+    "mass": "nonnegative",
+    "density": "positive",
+    "specific_heat": "positive",
+    "latent_heat": "positive",
+    "mass_per_area": "nonnegative",
+    "velocity": "nonnegative",
+    "time": "nonnegative",
+    "volume_per_mass": "positive",
+    "heat_capacity": "nonnegative",
+    "conductance": "nonnegative",
+    "cost_per_mass": "nonnegative",
+    "cost_per_volume": "nonnegative",
+    "cost_per_area": "nonnegative",
+}
+
+EMISSIVITY: tuple[float, float] = (0.0, 1.0)
+"""Bounds of an emissivity [-] (inclusive), for the ``bounds`` argument of :func:`parse`."""
+
+FRACTION: tuple[float, float] = (0.0, 1.0)
+"""Bounds of a share or fraction [-] (inclusive), for the ``bounds`` argument of :func:`parse`."""
 
 
 _DF = "delta_degF"
@@ -660,6 +704,7 @@ def parse(
     default_unit: str | None = None,
     *,
     currency: str | None = None,
+    bounds: tuple[float | None, float | None] | None = None,
 ) -> float:
     """Read a number with a unit and return its SI magnitude.
 
@@ -679,6 +724,9 @@ def parse(
         ``"dimensionless"``).
     currency : str, optional
         For cost kinds: the expected currency code (see :func:`parse_cost`).
+    bounds : (low, high), optional
+        Inclusive bounds in SI on top of the kind's domain (``None`` for an
+        open side), e.g. :data:`EMISSIVITY` ``(0, 1)`` for an emissivity.
 
     Returns
     -------
@@ -689,9 +737,12 @@ def parse(
     ------
     UnitError
         Empty or non-numeric text, NaN or infinity, unknown unit, wrong
-        dimension, missing unit, an absolute temperature below 0 K, or a
-        temperature difference given for an absolute temperature. The message
-        names ``field`` and gives an example of the expected input.
+        dimension, missing unit, a value outside the kind's physical domain
+        (:attr:`Kind.domain`: a thickness, length, area or volume must be
+        > 0, a mass, a time or a surface resistance >= 0, an absolute
+        temperature above 0 K) or outside ``bounds``, or a temperature
+        difference given for an absolute temperature. The message names
+        ``field``, the domain and gives an example of the expected input.
 
     Notes
     -----
@@ -721,8 +772,31 @@ def parse(
     Traceback (most recent call last):
     ...
     workbench.units.UnitError: thickness: "25 kg" has the wrong dimension; expected a length such as "25 mm" or "1 in"
+    >>> parse("-5 mm", "thickness", "thickness")
+    Traceback (most recent call last):
+    ...
+    workbench.units.UnitError: thickness: "-5 mm" is -0.005 m; a thickness must be > 0 m; expected a length such as "25 mm" or "1 in"
+    >>> parse("1.2", "dimensionless", "emissivity", bounds=EMISSIVITY)
+    Traceback (most recent call last):
+    ...
+    workbench.units.UnitError: emissivity: "1.2" is outside [0, 1] [-]
     """
-    return _parse(text, check_kind(kind), field, default_unit, currency)[0]
+    k = check_kind(kind)
+    value = _parse(text, k, field, default_unit, currency)[0]
+    _check_bounds(value, k, field, text, bounds)
+    return value
+
+
+def _check_bounds(value: float, kind: Kind, field: str, text, bounds) -> None:
+    if bounds is None:
+        return
+    low, high = bounds
+    if (low is not None and value < low) or (high is not None and value > high):
+        unit = kind.si_unit or "-"
+        lo = "-inf" if low is None else f"{low:g}"
+        hi = "inf" if high is None else f"{high:g}"
+        shown = text.strip() if isinstance(text, str) else repr(text)
+        raise UnitError(f'{field}: "{shown}" is outside [{lo}, {hi}] [{unit}]')
 
 
 def _parse(
@@ -764,7 +838,29 @@ def _parse(
     unit, code = _parse_unit(unit_text, kind, field, original, currency)
     value = _convert(number, unit, kind.si_unit)
     _check_absolute(value, kind, field, original)
+    _check_domain(float(value), kind, field, original)
     return float(value), code
+
+
+_WHAT = {"temperature": "absolute temperature", "time": "time or duration"}
+
+
+def _check_domain(value: float, kind: Kind, field: str, original: str) -> None:
+    """Refuse a value outside the kind's physical domain (names field, value and SI unit)."""
+    if kind.domain == "positive":
+        bad, rule = value <= 0.0, "> 0"
+    elif kind.domain == "nonnegative":
+        bad, rule = value < 0.0, ">= 0"
+    else:
+        return
+    if bad:
+        unit = kind.si_unit.replace("^2", "²").replace("^3", "³").replace("*", "·")
+        what = _WHAT.get(kind.name, kind.name.replace("_", " "))
+        article = "an" if what[0] in "aeiou" else "a"
+        raise UnitError(
+            f'{field}: "{original}" is {value:g} {unit}; {article} {what} must be {rule} {unit}; '
+            f"{_expected(kind)}"
+        )
 
 
 def _check_absolute(value_si, kind: Kind, field: str, original: str) -> None:

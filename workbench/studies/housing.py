@@ -21,6 +21,8 @@ skin burn thresholds (ISO 13732-1), not product limits.
 from __future__ import annotations
 
 import csv
+import re
+import textwrap
 import warnings
 from collections.abc import Sequence
 from dataclasses import dataclass
@@ -30,7 +32,17 @@ import numpy as np
 import pandas as pd
 
 from workbench._checks import ValidityWarning, finite, in_range, positive
-from workbench.housing import HOUSING_ASSUMPTIONS, MOUNTINGS, hot_spot, solve_housing
+from workbench.housing import (
+    HOUSING_ASSUMPTIONS,
+    MOUNTINGS,
+    WARM_UP_ASSUMPTIONS,
+    WarmUp,
+    _emissivity_sensitivity,
+    hot_spot,
+    housing_heat_capacity,
+    housing_warm_up,
+    solve_housing,
+)
 from workbench.ranking import pareto_front
 from workbench.touch import TOUCH_CAUTION, TouchLimits, load_touch_limits, touch_class
 
@@ -39,18 +51,49 @@ __all__ = [
     "Component",
     "HousingStudy",
     "HOUSING_CAUTIONS",
+    "TOUCH_RESULT_CAUTION",
+    "finish_text_is_coating",
     "load_finishes",
+    "warm_up_figure",
 ]
+
+#: Said beside every touch result (tables, charts, notebook prints).
+TOUCH_RESULT_CAUTION = (
+    "Touch safety and component limits stay with the applicable product standard and "
+    "measurement on the product."
+)
 
 #: Cautions attached to every housing result.
 HOUSING_CAUTIONS: tuple[str, ...] = (
+    TOUCH_RESULT_CAUTION,
     TOUCH_CAUTION,
     "All temperatures are first-order steady-state estimates (flat-plate correlations scatter by "
     "±20 % or more); confirm with a prototype measurement before committing to a design.",
     "The hot spot assumes the component's heat enters the wall through its footprint (bonded, "
     "no contact resistance): an upper estimate when part of it goes to the inside air.",
     "Costs are indicative demo values; replace them with your own.",
+    "The warm-up over the use session is a one-node estimate of the mean surface (housing and "
+    "contents at one temperature, contents' heat capacity as entered); the hot spot gets to the "
+    "touch limit sooner.",
 )
+
+# a coating named in a material row's finish text ("anodised (clear or dark)", "painted");
+# a word boundary before it keeps "unpainted" out
+_COATING_WORDS = re.compile(
+    r"\b(anodi[sz]\w*|paint(ed)?|powder[- ]coat\w*|lacquer\w*|enamel\w*|e-coat\w*|coated)\b",
+    re.IGNORECASE,
+)
+
+
+def finish_text_is_coating(text) -> bool:
+    """Whether a material row's own finish text names a coating (anodised, painted, lacquered ...).
+
+    Examples
+    --------
+    >>> finish_text_is_coating("anodised (clear or dark)"), finish_text_is_coating("moulded, unpainted")
+    (True, False)
+    """
+    return isinstance(text, str) and bool(_COATING_WORDS.search(text))
 
 _FINISH_COLUMNS = ("id", "name", "applies_to", "emissivity", "emissivity_source", "coated", "note")
 _ZERO_C = 273.15
@@ -221,8 +264,11 @@ class HousingStudy:
         Default: the shipped ISO 13732-1 values; enter the product standard's.
     h_inside : float or None
         Inside convective coefficient [W/(m²·K)]; None = correlations.
-    emissivity_step : float
-        Step of the central difference for ∂T_s/∂ε. [-]
+    session_duration : float
+        Length of a use session for the warm-up (:meth:`warm_up`). [s]
+    content_heat_capacity : float
+        Heat capacity of the contents (boards, battery, brackets), added to
+        the wall's for the warm-up. [J/K]
     """
 
     candidates: Sequence[HousingCandidate]
@@ -239,7 +285,8 @@ class HousingStudy:
     finishes: pd.DataFrame | None = None
     touch_limits: TouchLimits | None = None
     h_inside: float | None = None
-    emissivity_step: float = 0.02
+    session_duration: float = 1200.0
+    content_heat_capacity: float = 100.0
 
     def __post_init__(self):
         self.candidates = list(self.candidates)
@@ -289,9 +336,39 @@ class HousingStudy:
         if self.t_inside_max is not None:
             positive("t_inside_max", self.t_inside_max, "K")
         positive("contact_duration", self.contact_duration, "s")
-        in_range("emissivity_step", self.emissivity_step, 1e-6, 0.5, "-")
+        positive("session_duration", self.session_duration, "s")
+        if self.session_duration > 7 * 86400.0:
+            raise ValueError(
+                f"session_duration: at most 7 days ({7 * 86400.0:g} s) for a use session; "
+                f"got {self.session_duration:g} s"
+            )
+        finite("content_heat_capacity", self.content_heat_capacity, "J/K")
+        if self.content_heat_capacity < 0:
+            raise ValueError(
+                f"content_heat_capacity: must be >= 0 J/K (got {self.content_heat_capacity:g})"
+            )
         if self.component is not None and self.component.power > self.power:
             raise ValueError("component power: must not exceed the dissipated power (W)")
+        dims = (self.length, self.width, self.height)
+        for c in self.candidates:
+            if 2.0 * c.thickness >= min(dims):
+                raise ValueError(
+                    f"thickness of candidate {c.label!r}: two walls of {c.thickness * 1e3:g} mm "
+                    f"leave no inside in a box whose smallest outer dimension is "
+                    f"{min(dims) * 1e3:g} mm [m]"
+                )
+        if self.component is not None:
+            comp = sorted((self.component.length, self.component.width))
+            t_max = max(c.thickness for c in self.candidates)
+            inner = [d - 2.0 * t_max for d in dims]
+            faces = [sorted((inner[i], inner[j])) for i, j in ((0, 1), (0, 2), (1, 2))]
+            if not any(comp[0] <= f[0] and comp[1] <= f[1] for f in faces):
+                raise ValueError(
+                    f"component length, component width: a {self.component.length * 1e3:g} mm × "
+                    f"{self.component.width * 1e3:g} mm component does not fit on any inside face "
+                    f"of the housing ({inner[0] * 1e3:g} × {inner[1] * 1e3:g} × "
+                    f"{inner[2] * 1e3:g} mm inside the thickest wall) [m]"
+                )
 
     # -- per-candidate arrays ---------------------------------------------
     @property
@@ -300,16 +377,18 @@ class HousingStudy:
 
     def _arrays(self) -> dict[str, np.ndarray]:
         m, f = self.materials, self.finishes
-        out = {"t": [], "k": [], "rho": [], "eps": [], "cost_v": [], "coated": []}
+        out = {"t": [], "k": [], "rho": [], "cp": [], "eps": [], "cost_v": [], "coated": []}
         for c in self.candidates:
             row = m.loc[c.material]
             out["t"].append(c.thickness)
             out["k"].append(row["conductivity"])
             out["rho"].append(row["density"])
+            out["cp"].append(row["specific_heat"])
             out["cost_v"].append(row["cost_per_volume"])
             if c.finish is None:
                 out["eps"].append(row["emissivity"])
-                out["coated"].append(False)
+                # an anodised or painted material row counts as coated, as its finish would
+                out["coated"].append(finish_text_is_coating(row.get("emissivity_finish")))
             else:
                 out["eps"].append(f.loc[c.finish, "emissivity"])
                 out["coated"].append(bool(f.loc[c.finish, "coated"]))
@@ -337,25 +416,107 @@ class HousingStudy:
         """The enclosure solution over all candidates (a :class:`~workbench.housing.HousingSolution`)."""
         return self._solve()
 
-    def emissivity_sensitivity(self) -> np.ndarray:
-        """∂T_surface/∂ε per candidate by a central difference (one-sided at 0 and 1). [K]"""
-        eps = self._arrays()["eps"]
-        d = self.emissivity_step
-        lo = np.clip(eps - d, 0.0, 1.0)
-        hi = np.clip(eps + d, 0.0, 1.0)
-        with warnings.catch_warnings():
-            warnings.simplefilter("ignore", ValidityWarning)
-            t_lo = np.asarray(self._solve(emissivity=lo).t_surface)
-            t_hi = np.asarray(self._solve(emissivity=hi).t_surface)
-        return (t_hi - t_lo) / (hi - lo)
+    def heat_capacities(self) -> np.ndarray:
+        """Heat capacity of each candidate's shell plus the contents. [J/K]"""
+        a = self._arrays()
+        bad = [c.material for c, v in zip(self.candidates, a["cp"] * a["rho"], strict=True)
+               if not np.isfinite(v) or v <= 0]
+        if bad:
+            raise ValueError(
+                f"specific_heat, density: materials {sorted(set(bad))} have no density or specific "
+                "heat in the table; the warm-up needs both [kg/m³, J/(kg·K)]"
+            )
+        return np.asarray(
+            housing_heat_capacity(
+                self.length, self.width, self.height, a["t"], a["rho"], a["cp"],
+                self.content_heat_capacity,
+            ),
+            float,
+        ).reshape(len(self.candidates))
 
-    def results(self) -> pd.DataFrame:
+    def warm_up(self, time_step: float | None = None) -> WarmUp:
+        """Warm-up of every candidate over the use session from room temperature.
+
+        Returns a :class:`~workbench.housing.WarmUp` (candidates on axis 0,
+        time on axis 1) of :func:`~workbench.housing.housing_warm_up` with
+        the study's power, room and heat capacities (:meth:`heat_capacities`).
+        """
+        a = self._arrays()
+        return housing_warm_up(
+            self.length, self.width, self.height, a["t"], a["k"], a["eps"], self.power,
+            self.t_ambient, self.heat_capacities(), self.session_duration, self.mounting,
+            time_step=time_step, h_inside=self.h_inside,
+        )
+
+    def _touch_limits_per_candidate(self) -> tuple[list[str], np.ndarray]:
+        a = self._arrays()
+        classes = [
+            touch_class(self.materials.loc[c.material, "family"], bool(a["coated"][i]))
+            for i, c in enumerate(self.candidates)
+        ]
+        lim = np.array([self.touch_limits.lookup(cls, self.contact_duration).limit for cls in classes])
+        return classes, lim
+
+    def warm_up_frame(self, time_step: float | None = None, warm: WarmUp | None = None) -> pd.DataFrame:
+        """Surface and inside-air temperatures [K] over the session [s] (long format).
+
+        Columns ``candidate``, ``time``, ``t_surface``, ``t_air_inside``,
+        ``touch_limit`` (the candidate's limit for the chosen contact
+        duration). ``attrs["time_to_touch_limit"]`` maps each candidate to
+        the time its mean surface reaches that limit [s] (``inf``: not within
+        the session).
+        """
+        if warm is None:
+            with warnings.catch_warnings():
+                warnings.simplefilter("ignore", ValidityWarning)
+                warm = self.warm_up(time_step)
+        w = warm
+        classes, lim = self._touch_limits_per_candidate()
+        n, nt = len(self.candidates), w.time.size
+        frame = pd.DataFrame(
+            {
+                "candidate": np.repeat(self.names, nt),
+                "time": np.tile(w.time, n),
+                "t_surface": w.t_surface.ravel(),
+                "t_air_inside": w.t_air_inside.ravel(),
+                "touch_limit": np.repeat(lim, nt),
+                "touch_class": np.repeat(classes, nt),
+            }
+        )
+        frame.attrs["units"] = {"time": "s", "t_surface": "K", "t_air_inside": "K",
+                                "touch_limit": "K"}
+        frame.attrs["time_to_touch_limit"] = dict(
+            zip(self.names, np.asarray(w.time_to_limit(lim), float).tolist(), strict=True)
+        )
+        frame.attrs["session_duration"] = self.session_duration
+        frame.attrs["cautions"] = HOUSING_CAUTIONS
+        frame.attrs["assumptions"] = WARM_UP_ASSUMPTIONS
+        return frame
+
+    def emissivity_sensitivity(self, solution=None) -> np.ndarray:
+        """∂T_surface/∂ε per candidate at its own emissivity [K].
+
+        From the surface balance itself (implicit function theorem; see
+        :func:`workbench.housing._emissivity_sensitivity`), so no further
+        balance is solved; ``solution`` is :meth:`solution` when already at hand.
+        """
+        sol = self._solve() if solution is None else solution
+        n = len(self.candidates)
+        return np.broadcast_to(
+            _emissivity_sensitivity(sol, self.length, self.width, self.height), (n,)
+        ).copy()
+
+    def results(self, warm: WarmUp | None = None) -> pd.DataFrame:
         """One row per candidate: temperatures, hot spot, touch margins, mass, cost, pass/fail.
 
         Temperatures in K (columns ending ``_degC`` repeat them in °C for
         reading); units in ``attrs["units"]``, cautions in
         ``attrs["cautions"]``, assumptions in ``attrs["assumptions"]``,
         validity warnings met while solving in ``attrs["validity_warnings"]``.
+        ``time_to_touch_limit`` [s] is when the mean surface reaches the touch
+        limit during the use session (:meth:`warm_up`), ``inf`` when not
+        within the session; ``t_surface_session_end`` [K] is the mean surface
+        at the end of the session.
         """
         m, f = self.materials, self.finishes
         a = self._arrays()
@@ -365,6 +526,8 @@ class HousingStudy:
             hs = None
             if self.component is not None:
                 hs = hot_spot(sol, self.component.area, self.component.power)
+            if warm is None:
+                warm = self.warm_up()
         messages = sorted(
             {str(w.message) for w in caught if issubclass(w.category, ValidityWarning)}
         )
@@ -391,7 +554,9 @@ class HousingStudy:
         v_in = (self.length - 2 * t) * (self.width - 2 * t) * (self.height - 2 * t)
         mass = a["rho"] * (v_out - v_in)
         cost = a["cost_v"] * (v_out - v_in)
-        sens = self.emissivity_sensitivity()
+        sens = self.emissivity_sensitivity(sol)
+        t_reach = np.asarray(warm.time_to_limit(lim), float).reshape(n)
+        t_end = np.asarray(warm.t_surface, float).reshape(n, -1)[:, -1]
         t_service_max = m.loc[[c.material for c in self.candidates], "t_service_max"].to_numpy(
             float
         )
@@ -458,6 +623,10 @@ class HousingStudy:
                 "dt_surface_d_emissivity": sens,
                 "mass": mass,
                 "cost": cost,
+                "heat_capacity": np.asarray(warm.heat_capacity, float).reshape(n),
+                "t_surface_session_end": t_end,
+                "t_surface_session_end_degC": t_end - _ZERO_C,
+                "time_to_touch_limit": t_reach,
                 "touch_class": classes,
                 "touch_limit": lim,
                 "touch_limit_degC": lim - _ZERO_C,
@@ -499,13 +668,18 @@ class HousingStudy:
             "dt_surface_d_emissivity": "K",
             "mass": "kg",
             "cost": "/".join(currency) or "EUR",
+            "heat_capacity": "J/K",
+            "t_surface_session_end": "K",
+            "t_surface_session_end_degC": "°C",
+            "time_to_touch_limit": "s",
             "touch_limit": "K",
             "touch_limit_degC": "°C",
             "margin_surface": "K",
             "margin_hot_spot": "K",
         }
         frame.attrs["cautions"] = HOUSING_CAUTIONS
-        frame.attrs["assumptions"] = HOUSING_ASSUMPTIONS
+        frame.attrs["assumptions"] = HOUSING_ASSUMPTIONS + WARM_UP_ASSUMPTIONS
+        frame.attrs["session_duration"] = self.session_duration
         frame.attrs["validity_warnings"] = tuple(messages)
         frame.attrs["pareto_objectives"] = ("t_air_inside", "t_hot_spot", "mass", "cost")
         return frame
@@ -599,3 +773,129 @@ class HousingStudy:
         frame.attrs["units"] = {"contact_duration": "s", "limit": "K", "limit_degC": "°C"}
         frame.attrs["cautions"] = (TOUCH_CAUTION,)
         return frame
+
+
+_WARM_COLOURS = (
+    "#1f6f8b", "#c2571a", "#4b8b3b", "#8e3b8b", "#b08900", "#3b5b8e", "#a23b3b", "#2f8f83",
+    "#6b6b6b", "#7a4f1d",
+)
+_LIMIT_DASHES = ("dash", "dot", "dashdot", "longdash", "longdashdot")
+
+
+def warm_up_traces(
+    frame: pd.DataFrame,
+    system: str = "SI",
+    title: str | None = None,
+    chosen: str | None = None,
+    colours: Sequence[str] | None = None,
+) -> tuple[list[dict], dict]:
+    """The traces (plain dicts) and layout of :func:`warm_up_figure`.
+
+    Kept apart so a live chart can update its traces in place instead of
+    building a new figure for every input change.
+    """
+    import html as _html
+
+    from workbench import units
+
+    units.check_system(system)
+    tu = units.display_unit("temperature", system)
+    names = list(dict.fromkeys(frame["candidate"]))
+    t_max = float(frame["time"].max()) if len(frame) else 0.0
+    per, tlab = (60.0, "min") if t_max <= 3 * 3600.0 else (3600.0, "h")
+    colours = list(colours) if colours is not None else list(_WARM_COLOURS)
+
+    def temp(x):
+        return np.asarray(units.from_si(np.asarray(x, float), "temperature", system), float)
+
+    reach = frame.attrs.get("time_to_touch_limit", {})
+    cand = frame["candidate"].to_numpy()
+    times = frame["time"].to_numpy(float)
+    surface = temp(frame["t_surface"].to_numpy(float))
+    traces = []
+    for i, name in enumerate(names):
+        sel = np.flatnonzero(cand == name)
+        # at most about 150 points per line on screen (the first and last always kept)
+        stride = max(1, -(-sel.size // 150))
+        sel = np.unique(np.r_[sel[::stride], sel[-1:]])
+        esc = _html.escape(str(name))
+        traces.append(dict(
+            type="scatter", x=times[sel] / per, y=surface[sel], name=str(name), mode="lines",
+            line={"color": colours[i % len(colours)], "width": 3.5 if name == chosen else 1.8},
+            hovertemplate=f"<b>{esc}</b><br>t = %{{x:.1f}} {tlab}<br>mean surface "
+            f"%{{y:.1f}} {tu}<extra></extra>",
+        ))
+    limits = frame.drop_duplicates("touch_class")[["touch_class", "touch_limit"]]
+    x_end = t_max / per
+    for j, (cls, lim) in enumerate(zip(limits["touch_class"], limits["touch_limit"], strict=True)):
+        y = float(temp(lim))
+        traces.append(dict(
+            type="scatter", x=[0.0, x_end], y=[y, y], name=f"touch limit, {cls} ({y:.1f} {tu})",
+            mode="lines",
+            line={"color": "#b5452b", "width": 1.6, "dash": _LIMIT_DASHES[j % len(_LIMIT_DASHES)]},
+            hovertemplate=f"touch limit, {_html.escape(str(cls))}: %{{y:.1f}} {tu}<extra></extra>",
+        ))
+    hits = [(n, reach.get(n, np.inf)) for n in names]
+    hits = [(n, t) for n, t in hits if np.isfinite(t)]
+    lim_of = dict(zip(frame["candidate"], frame["touch_limit"], strict=False))
+    traces.append(dict(
+        type="scatter",
+        x=[t / per for _, t in hits],
+        y=[float(temp(lim_of[n])) for n, _ in hits],
+        text=[str(n) for n, _ in hits],
+        name="reaches its touch limit",
+        mode="markers",
+        marker={"symbol": "x", "size": 10, "color": "#1d2433"},
+        hovertemplate=f"%{{text}}<br>reaches the touch limit at %{{x:.1f}} {tlab}"
+        f"<br>%{{y:.1f}} {tu}<extra></extra>",
+    ))
+    layout = dict(
+        title={"text": title or "Mean surface temperature over the use session", "x": 0.01,
+               "xanchor": "left", "font": {"size": 13}},
+        xaxis={"title": {"text": f"Time into the session [{tlab}]"}},
+        yaxis={"title": {"text": units.axis_label("temperature", system, name="Mean surface temperature")}},
+        legend={"font": {"size": 10}, "orientation": "h", "yanchor": "top", "y": -0.22, "x": 0},
+        margin={"l": 62, "r": 14, "t": 34, "b": 150},
+        annotations=[
+            {
+                "text": "<br>".join(textwrap.wrap(TOUCH_RESULT_CAUTION, 80)),
+                "xref": "paper", "yref": "paper", "x": 0, "y": -0.62, "showarrow": False,
+                "xanchor": "left", "align": "left", "font": {"size": 10, "color": "#8a3b24"},
+            }
+        ],
+    )
+    return traces, layout
+
+
+def warm_up_figure(
+    frame: pd.DataFrame,
+    system: str = "SI",
+    title: str | None = None,
+    chosen: str | None = None,
+    colours: Sequence[str] | None = None,
+):
+    """Mean surface temperature over the use session against the touch limit (plotly ``go.Figure``).
+
+    One line per candidate (the ``chosen`` one wider), one dashed line per
+    touch limit in use, and a marker where a candidate reaches its limit.
+    Time in minutes (hours for sessions over 3 h); temperature in °C (SI) or
+    °F (US). Hover shows the candidate, time and temperature with units. The
+    touch caution is printed under the plot.
+
+    Parameters
+    ----------
+    frame : DataFrame
+        :meth:`HousingStudy.warm_up_frame`.
+    system : {"SI", "US"}
+    title : str, optional
+    chosen : str, optional
+        Candidate drawn wider.
+    colours : sequence of str, optional
+        One colour per candidate, in order (default a built-in palette).
+    """
+    import plotly.graph_objects as go
+
+    traces, layout = warm_up_traces(frame, system, title, chosen, colours)
+    fig = go.Figure(data=[go.Scatter({k: v for k, v in t.items() if k != "type"}) for t in traces])
+    fig.update_layout(template="plotly_white", **layout)
+    return fig

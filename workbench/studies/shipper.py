@@ -27,14 +27,14 @@ applicable distribution rules.
 
 from __future__ import annotations
 
-from collections.abc import Sequence
+from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, field
 
 import numpy as np
 import pandas as pd
 
 from workbench import freight, transient
-from workbench._checks import finite, in_range, nonnegative, positive
+from workbench._checks import finite, nonnegative, positive
 from workbench.air_layers import AirLayer
 from workbench.coolants import load_coolants
 from workbench.geometry import VacuumPanel, layered_box_conductance
@@ -48,7 +48,18 @@ __all__ = [
     "GENERAL_CAUTIONS",
     "cost_figure",
     "hold_figure",
+    "trace_figure",
+    "SINGLE_PROFILE",
+    "TRACE_CAUTION",
 ]
+
+#: Name of the one profile of a study made with ``t_ambient`` only.
+SINGLE_PROFILE = "ambient"
+#: Shown with every calculated trace.
+TRACE_CAUTION = (
+    "A calculated trace does not qualify a shipper; the qualification test under the applicable "
+    "distribution rules does."
+)
 
 #: Assumptions every shipper result rests on.
 SHIPPER_ASSUMPTIONS = (
@@ -127,12 +138,19 @@ class ShipperResults:
         Warnings to show beside the numbers.
     assumptions : tuple of str
         What the numbers rest on.
+    by_profile : DataFrame
+        One row per candidate, sized thickness and named ambient profile:
+        ``hold_time_simulated`` [s], ``end_reason``, ``meets_target``,
+        ``time_coolant_spent`` [s], ``time_out_of_range`` [s],
+        ``min_payload_temperature`` / ``max_payload_temperature`` [K].
+        A design meets the target only if it meets it under every profile.
     """
 
     sweep: pd.DataFrame
     optimum: pd.DataFrame
     cautions: tuple[str, ...]
     assumptions: tuple[str, ...] = SHIPPER_ASSUMPTIONS
+    by_profile: pd.DataFrame | None = None
 
 
 _SWEEP_UNITS = {
@@ -186,6 +204,8 @@ class ShipperStudy:
         Payload temperature when packed. [K]
     t_ambient : float or (array, array)
         Ambient temperature or step profile ``(times_s, temperatures_K)``. [K]
+        With ``ambient_profiles`` leave it at its default: it then becomes
+        the first named profile.
     duration : float
         Required hold time. [s]
     thicknesses : array
@@ -217,6 +237,14 @@ class ShipperStudy:
         Step of the simulation. [s]
     coolants : DataFrame, optional
         Coolants table (default: :func:`workbench.coolants.load_coolants`).
+    ambient_profiles : mapping of str to profile, optional
+        Several named ambient profiles at once, e.g. ``{"summer": (times_s,
+        temps_K), "winter": ...}`` (each a temperature [K] or step profile as
+        ``t_ambient``; :func:`workbench.load_ambient_profile` reads a logger
+        file). The coolant is sized for the most demanding profile, every
+        design is simulated under each, and a design meets the target only
+        if it holds under all of them. ``None``: the one profile
+        ``t_ambient``, named :data:`SINGLE_PROFILE`.
     """
 
     candidates: Sequence[ShipperCandidate]
@@ -248,6 +276,7 @@ class ShipperStudy:
     fixed_fee: float = 5.0
     time_step: float = 300.0
     coolants: pd.DataFrame | None = None
+    ambient_profiles: Mapping[str, object] | None = None
 
     def __post_init__(self):
         self.candidates = list(self.candidates)
@@ -283,40 +312,131 @@ class ShipperStudy:
             "mass_increment",
             "time_step",
             "coupling_coefficient",
-            "t_payload_start",
         ):
-            positive(name, getattr(self, name), _INPUT_UNITS[name])
-        nonnegative("r_si", self.r_si, "m²·K/W")
-        nonnegative("r_se", self.r_se, "m²·K/W")
-        nonnegative("rate_per_kg", self.rate_per_kg, "currency/kg")
-        nonnegative("fixed_fee", self.fixed_fee, "currency")
-        in_range("coolant_wall_fraction", self.coolant_wall_fraction, 0.0, 1.0, "-")
-        in_range("coolant_packing_fraction", self.coolant_packing_fraction, 1e-3, 1.0, "-")
-        if finite("safety_factor", self.safety_factor, "-") < 1.0:
-            raise ValueError("safety_factor: must be >= 1 [-]")
-        lo = (
-            -np.inf
-            if self.t_payload_min is None
-            else float(positive("t_payload_min", self.t_payload_min, "K"))
-        )
-        hi = (
-            np.inf
-            if self.t_payload_max is None
-            else float(positive("t_payload_max", self.t_payload_max, "K"))
-        )
+            _one(name, getattr(self, name), positive)
+        for name in ("r_si", "r_se", "rate_per_kg", "fixed_fee"):
+            _one(name, getattr(self, name), nonnegative)
+        _one("coolant_wall_fraction", self.coolant_wall_fraction, finite)
+        if not 0.0 <= self.coolant_wall_fraction <= 1.0:
+            raise ValueError(
+                f"coolant_wall_fraction: must lie in [0, 1] [-], got {self.coolant_wall_fraction!r}"
+            )
+        _one("coolant_packing_fraction", self.coolant_packing_fraction, finite)
+        if not 0.0 < self.coolant_packing_fraction <= 1.0:
+            raise ValueError(
+                "coolant_packing_fraction: must lie in (0, 1] [-] (share of the coolant space "
+                f"filled), got {self.coolant_packing_fraction!r}"
+            )
+        sf = _one("safety_factor", self.safety_factor, finite)
+        if not 1.0 <= sf <= 10.0:
+            raise ValueError(
+                f"safety_factor: must lie in [1, 10] [-] (a multiplier: 1.2 for 20 % extra), got {sf:g}"
+            )
+        for name in ("t_payload_min", "t_payload_max", "t_payload_start", "t_coolant_start"):
+            value = getattr(self, name)
+            if value is None and name != "t_payload_start":
+                continue
+            _one(name, value, positive)
+            lo_t, hi_t = transient.TEMPERATURE_RANGE
+            if not lo_t <= float(value) <= hi_t:
+                raise ValueError(
+                    f"{name}: must lie in [{lo_t:g}, {hi_t:g}] K, got {float(value):g} K; "
+                    "temperatures are absolute, in kelvin (°C + 273.15)"
+                )
+        lo = -np.inf if self.t_payload_min is None else float(self.t_payload_min)
+        hi = np.inf if self.t_payload_max is None else float(self.t_payload_max)
         if lo >= hi:
             raise ValueError(
                 "t_payload_min, t_payload_max: the payload range is inverted (min must be below max) [K]"
             )
         if not lo <= self.t_payload_start <= hi:
             raise ValueError("t_payload_start: must lie within the payload range [K]")
-        self.thicknesses = np.atleast_1d(positive("thicknesses", self.thicknesses, "m"))
-        transient.ambient_profile(self.t_ambient)
+        thk = positive("thicknesses", self.thicknesses, "m")
+        if thk.ndim > 1 or thk.size == 0:
+            raise ValueError(
+                f"thicknesses: expected a list of one or more thicknesses [m], got shape {thk.shape}"
+            )
+        self.thicknesses = np.atleast_1d(thk)
+        # the profiles, normalised to (times_s, temperatures_K) lists (a constant stays a float)
+        if self.ambient_profiles is not None:
+            if not isinstance(self.ambient_profiles, Mapping) or not self.ambient_profiles:
+                raise ValueError(
+                    "ambient_profiles: expected a mapping of names to profiles, e.g. "
+                    "{'summer': (times_s, temps_K), 'winter': ...}, with at least one entry"
+                )
+            named = {}
+            for name, prof in self.ambient_profiles.items():
+                if not isinstance(name, str) or not name.strip():
+                    raise ValueError(f"ambient_profiles: names must be non-empty text, got {name!r}")
+                try:
+                    named[name.strip()] = _normalise_profile(prof)
+                except ValueError as exc:
+                    raise ValueError(f"ambient_profiles[{name!r}]: {exc}") from None
+            first = next(iter(named.values()))
+            if not _same_profile(self.t_ambient, 298.15) and not _same_profile(self.t_ambient, first):
+                raise ValueError(
+                    "t_ambient: give either t_ambient (one profile) or ambient_profiles (named "
+                    "profiles), not both; with ambient_profiles t_ambient becomes the first profile"
+                )
+            self.ambient_profiles = named
+            self.t_ambient = first
+        else:
+            self.t_ambient = _normalise_profile(self.t_ambient)
+        self._check_work()
+        usable = []
+        for name, prof in self.profiles.items():
+            times, temps = transient.ambient_profile(prof)
+            try:
+                self._check_coolant_used(times, temps)
+                usable.append(name)
+            except ValueError as exc:
+                last = exc
+        if not usable:
+            raise last
+
+    def _check_work(self) -> None:
+        """Refuse, before computing, runs beyond the simulation's work limits."""
+        # hold_curve runs for twice the duration, the longest run the study makes
+        steps = 2.0 * self.duration / self.time_step
+        if steps > transient.MAX_STEPS:
+            raise ValueError(
+                f"time_step: the study simulates up to 2 × duration = {2 * self.duration:g} s in steps "
+                f"of {self.time_step:g} s = {steps:,.0f} time steps; the limit is "
+                f"{transient.MAX_STEPS:,} (workbench.transient.MAX_STEPS). Use a time_step of at least "
+                f"{2 * self.duration / transient.MAX_STEPS:.4g} s or a shorter duration"
+            )
+        designs = len(self.candidates) * self.thicknesses.size
+        cells = designs * int(np.ceil(steps))  # per profile: each is one simulate_hold call
+        if cells > transient.MAX_CELLS:
+            raise ValueError(
+                f"thicknesses: {len(self.candidates)} candidates × {self.thicknesses.size} thicknesses "
+                f"× {int(np.ceil(steps)):,} time steps = {cells:,} cells; the limit is "
+                f"{transient.MAX_CELLS:,} (workbench.transient.MAX_CELLS). Use fewer thicknesses or "
+                "candidates, a larger time_step or a shorter duration"
+            )
+
+    def _check_coolant_used(self, times: np.ndarray, temps: np.ndarray) -> None:
+        """The study sizes coolant that melts; refuse a case where none can melt."""
+        tpc = float(self.coolant_row["t_phase_change"])
+        during = temps[times < self.duration]
+        if during.max() <= tpc and self.t_payload_start <= tpc:
+            raise ValueError(
+                f"t_ambient: never above the coolant's phase change ({tpc - 273.15:.1f} °C) within "
+                "the duration, so no coolant melts and none can be sized; this study keeps a payload "
+                "cool: choose a coolant with a lower phase-change temperature"
+            )
 
     # -- properties -----------------------------------------------------------
     @property
     def names(self) -> list[str]:
         return [c.name for c in self.candidates]
+
+    @property
+    def profiles(self) -> dict[str, object]:
+        """Named ambient profiles (one, :data:`SINGLE_PROFILE`, without ``ambient_profiles``)."""
+        if self.ambient_profiles is None:
+            return {SINGLE_PROFILE: self.t_ambient}
+        return dict(self.ambient_profiles)
 
     @property
     def coolant_row(self) -> pd.Series:
@@ -392,28 +512,47 @@ class ShipperStudy:
         mass = np.full(n, 0.5)
         for _ in range(30):
             box = self._box(lay, mass)
-            new = np.asarray(
-                transient.coolant_mass_for_duration(
-                    self.duration,
-                    box["conductance"],
-                    self.t_ambient,
-                    float(row["latent_heat"]),
-                    float(row["t_phase_change"]),
-                    self.payload_heat_capacity,
-                    self.t_payload_start,
-                    self.safety_factor,
-                ),
-                float,
+            new = np.max(
+                [
+                    np.asarray(
+                        transient.coolant_mass_for_duration(
+                            self.duration,
+                            box["conductance"],
+                            prof,
+                            float(row["latent_heat"]),
+                            float(row["t_phase_change"]),
+                            self.payload_heat_capacity,
+                            self.t_payload_start,
+                            self.safety_factor,
+                        ),
+                        float,
+                    )
+                    for prof in self.profiles.values()
+                ],
+                axis=0,
             )
             if np.allclose(new, mass, rtol=1e-6, atol=1e-9):
                 mass = new
                 break
             mass = new
+        if np.any(mass <= 0):
+            raise ValueError(
+                "t_ambient, t_payload_start: no coolant melts within the duration for some designs "
+                "(ambient not above the phase change long enough), so none can be sized; choose a "
+                "coolant with a lower phase-change temperature"
+            )
         return mass, self._box(lay, mass)
 
     # -- the sweep ------------------------------------------------------------
     def sweep(self, progress=None, cancel=None) -> pd.DataFrame:
         """Every candidate × thickness: coolant, box, masses, costs and simulated hold.
+
+        With several named profiles the hold columns (``hold_time_simulated``,
+        ``end_reason``, ``time_coolant_spent``, ``time_out_of_range``) are
+        those of the limiting profile (named in ``limiting_profile``),
+        ``meets_target`` is true only if the design holds under every profile
+        and ``failing_profiles`` lists those it does not hold under; the
+        per-profile rows are in :attr:`ShipperResults.by_profile`.
 
         ``progress(fraction)`` and ``cancel()`` (optional) are passed to the
         time-stepped simulation (:func:`workbench.transient.simulate_hold`),
@@ -425,6 +564,10 @@ class ShipperStudy:
         DataFrame
             One row per candidate and sized thickness; units in ``attrs["units"]``.
         """
+        return self._sweep_all(progress, cancel)[0]
+
+    def _sweep_all(self, progress=None, cancel=None) -> tuple[pd.DataFrame, pd.DataFrame]:
+        """The sweep and its per-profile rows."""
         row = self.coolant_row
         frames = []
         designs = []
@@ -455,17 +598,23 @@ class ShipperStudy:
                 ),
                 float,
             )
-            hold_cf = np.asarray(
-                transient.hold_time(
-                    box["conductance"],
-                    self.t_ambient,
-                    mass,
-                    float(row["latent_heat"]),
-                    float(row["t_phase_change"]),
-                    self.payload_heat_capacity,
-                    self.t_payload_start,
-                ),
-                float,
+            hold_cf = np.min(
+                [
+                    np.asarray(
+                        transient.hold_time(
+                            box["conductance"],
+                            prof,
+                            mass,
+                            float(row["latent_heat"]),
+                            float(row["t_phase_change"]),
+                            self.payload_heat_capacity,
+                            self.t_payload_start,
+                        ),
+                        float,
+                    )
+                    for prof in self.profiles.values()
+                ],
+                axis=0,
             )
             frames.append(
                 pd.DataFrame(
@@ -494,19 +643,13 @@ class ShipperStudy:
             )
             designs.append((box["conductance"], mass))
         frame = pd.concat(frames, ignore_index=True)
-        sim = self.simulate(
+        per = self._simulate_profiles(
             np.concatenate([d[0] for d in designs]),
             np.concatenate([d[1] for d in designs]),
             progress=progress,
             cancel=cancel,
         )
-        frame["hold_time_simulated"] = sim.hold_time
-        frame["time_coolant_spent"] = sim.time_coolant_spent
-        frame["time_out_of_range"] = sim.time_out_of_range
-        frame["end_reason"] = sim.reason
-        frame["min_payload_temperature"] = sim.payload_temperature.min(axis=-1)
-        frame["max_payload_temperature"] = sim.payload_temperature.max(axis=-1)
-        frame["meets_target"] = sim.hold_time >= self.duration * (1 - 1e-9)
+        _combine_profiles(frame, per, self.duration)
         frame.attrs["units"] = dict(
             _SWEEP_UNITS,
             **{
@@ -515,16 +658,76 @@ class ShipperStudy:
             },
         )
         frame.attrs["assumptions"] = SHIPPER_ASSUMPTIONS
-        return frame
+        frame.attrs["profiles"] = list(self.profiles)
+        long = []
+        for name, sim in per.items():
+            long.append(
+                pd.DataFrame(
+                    {
+                        "candidate": frame["candidate"],
+                        "thickness": frame["thickness"],
+                        "profile": name,
+                        "hold_time_simulated": sim.hold_time,
+                        "end_reason": sim.reason,
+                        "meets_target": sim.hold_time >= self.duration * (1 - 1e-9),
+                        "time_coolant_spent": sim.time_coolant_spent,
+                        "time_out_of_range": sim.time_out_of_range,
+                        "min_payload_temperature": sim.payload_temperature.min(axis=-1),
+                        "max_payload_temperature": sim.payload_temperature.max(axis=-1),
+                    }
+                )
+            )
+        by_profile = pd.concat(long, ignore_index=True)
+        by_profile.attrs["units"] = {
+            "thickness": "m",
+            "hold_time_simulated": "s",
+            "time_coolant_spent": "s",
+            "time_out_of_range": "s",
+            "min_payload_temperature": "K",
+            "max_payload_temperature": "K",
+        }
+        return frame, by_profile
+
+    def _simulate_profiles(
+        self, conductance, coolant_mass, duration=None, progress=None, cancel=None, record_every=None
+    ) -> dict[str, transient.HoldSimulation]:
+        """One :meth:`simulate` per named profile; progress split evenly over them."""
+        out = {}
+        n = len(self.profiles)
+        for i, (name, prof) in enumerate(self.profiles.items()):
+            part = None if progress is None else (lambda f, i=i: progress((i + f) / n))
+            out[name] = self.simulate(
+                conductance,
+                coolant_mass,
+                duration=duration,
+                progress=part,
+                cancel=cancel,
+                t_ambient=prof,
+                record_every=record_every,
+            )
+        return out
 
     def simulate(
-        self, conductance, coolant_mass, duration: float | None = None, progress=None, cancel=None
+        self,
+        conductance,
+        coolant_mass,
+        duration: float | None = None,
+        progress=None,
+        cancel=None,
+        t_ambient=None,
+        record_every: int | None = None,
     ) -> transient.HoldSimulation:
-        """Time-stepped check of designs (arrays of conductance [W/K] and coolant mass [kg])."""
+        """Time-stepped check of designs (arrays of conductance [W/K] and coolant mass [kg]).
+
+        ``t_ambient``: one profile (default the study's ``t_ambient``, the
+        first named profile); ``record_every``: store every n-th step
+        (default about every 30 min).
+        """
         row = self.coolant_row
+        every = max(1, int(round(1800.0 / self.time_step))) if record_every is None else record_every
         return transient.simulate_hold(
             conductance,
-            self.t_ambient,
+            self.t_ambient if t_ambient is None else t_ambient,
             coolant_mass,
             float(row["latent_heat"]),
             float(row["t_phase_change"]),
@@ -539,7 +742,7 @@ class ShipperStudy:
             t_payload_start=self.t_payload_start,
             t_payload_min=self.t_payload_min,
             t_payload_max=self.t_payload_max,
-            record_every=max(1, int(round(1800.0 / self.time_step))),
+            record_every=every,
             progress=progress,
             cancel=cancel,
         )
@@ -548,7 +751,9 @@ class ShipperStudy:
         """Hold time against thickness for each candidate with a fixed coolant mass.
 
         Returns closed-form and simulated hold times [s] (the simulation runs
-        for twice the target duration, so longer holds show up to that).
+        for twice the target duration, so longer holds show up to that); with
+        several named profiles the shortest hold, its ``end_reason`` and
+        ``limiting_profile``.
         ``progress``/``cancel`` as in :meth:`sweep`.
         """
         mass = float(positive("coolant_mass", coolant_mass, "kg"))
@@ -557,14 +762,23 @@ class ShipperStudy:
         for cand in self.candidates:
             lay = self._layers(cand, self.thicknesses)
             box = self._box(lay, np.full(self.thicknesses.size, mass))
-            hold = transient.hold_time(
-                box["conductance"],
-                self.t_ambient,
-                mass,
-                float(row["latent_heat"]),
-                float(row["t_phase_change"]),
-                self.payload_heat_capacity,
-                self.t_payload_start,
+            hold = np.min(
+                [
+                    np.asarray(
+                        transient.hold_time(
+                            box["conductance"],
+                            prof,
+                            mass,
+                            float(row["latent_heat"]),
+                            float(row["t_phase_change"]),
+                            self.payload_heat_capacity,
+                            self.t_payload_start,
+                        ),
+                        float,
+                    )
+                    for prof in self.profiles.values()
+                ],
+                axis=0,
             )
             frames.append(
                 pd.DataFrame(
@@ -577,15 +791,14 @@ class ShipperStudy:
                 )
             )
         frame = pd.concat(frames, ignore_index=True)
-        sim = self.simulate(
+        per = self._simulate_profiles(
             frame["conductance"].to_numpy(),
             mass,
             duration=2 * self.duration,
             progress=progress,
             cancel=cancel,
         )
-        frame["hold_time_simulated"] = sim.hold_time
-        frame["end_reason"] = sim.reason
+        _combine_profiles(frame, per, 2 * self.duration, minimal=True)
         frame.attrs["units"] = {
             "thickness": "m",
             "conductance": "W/K",
@@ -597,7 +810,8 @@ class ShipperStudy:
     def thickness_for_target(self, coolant_mass: float) -> pd.Series:
         """Sized-layer thickness [m] per candidate that holds for the target with a fixed coolant mass.
 
-        NaN where the largest thickness of the sweep is not enough.
+        NaN where the largest thickness of the sweep is not enough; the
+        largest over the named profiles (closed form: coolant spent only).
         """
         mass = float(positive("coolant_mass", coolant_mass, "kg"))
         row = self.coolant_row
@@ -609,11 +823,12 @@ class ShipperStudy:
                 lay = self._layers(cand, d.ravel())
                 return self._box(lay, np.full(d.size, mass))["conductance"].reshape(d.shape)
 
-            out[cand.name] = float(
-                transient.thickness_for_duration(
-                    self.duration,
-                    ua_of,
-                    self.t_ambient,
+            out[cand.name] = max(
+                float(
+                    transient.thickness_for_duration(
+                        self.duration,
+                        ua_of,
+                        prof,
                     mass,
                     float(row["latent_heat"]),
                     float(row["t_phase_change"]),
@@ -622,14 +837,22 @@ class ShipperStudy:
                     payload_heat_capacity=self.payload_heat_capacity,
                     t_payload_start=self.t_payload_start,
                     on_impossible="nan",
+                    )
                 )
+                for prof in self.profiles.values()
             )
         s = pd.Series(out, name="thickness")
         s.attrs["units"] = {"thickness": "m"}
         return s
 
-    def cautions(self, sweep: pd.DataFrame | None = None) -> tuple[str, ...]:
-        """Warnings that go with this study's results (strings)."""
+    def cautions(
+        self, sweep: pd.DataFrame | None = None, by_profile: pd.DataFrame | None = None
+    ) -> tuple[str, ...]:
+        """Warnings that go with this study's results (strings).
+
+        With ``by_profile`` every failing end reason is named per profile, the
+        payload too cold (freezing) as prominently as the coolant spent.
+        """
         row = self.coolant_row
         out = list(GENERAL_CAUTIONS)
         tpc = float(row["t_phase_change"])
@@ -671,12 +894,26 @@ class ShipperStudy:
                 out.append(
                     "No design in the sweep meets the hold time: widen the thickness range or change the coolant."
                 )
+        if by_profile is not None:
+            for reason, advice in (
+                ("payload too cold", "condition the coolant, separate it from the payload or add insulation"),
+                ("coolant spent", "add coolant or insulation"),
+                ("payload too warm", "add insulation or move the coolant closer to the payload"),
+            ):
+                hit = by_profile[
+                    (by_profile["end_reason"] == reason) & ~by_profile["meets_target"].astype(bool)
+                ]
+                for prof, grp in hit.groupby("profile", sort=False):
+                    out.append(
+                        f"{reason.upper()} under the {prof!r} profile: {len(grp)} design(s) end "
+                        f"their hold before the target this way: {advice}."
+                    )
         out.append("Material, coolant and freight costs are demo or user values, not quotes.")
         return tuple(dict.fromkeys(out))
 
     def results(self, progress=None, cancel=None) -> ShipperResults:
         """Sweep, optimum per candidate and cautions (``progress``/``cancel`` as in :meth:`sweep`)."""
-        sweep = self.sweep(progress=progress, cancel=cancel)
+        sweep, by_profile = self._sweep_all(progress=progress, cancel=cancel)
         rows = []
         for name in self.names:
             s = sweep[(sweep["candidate"] == name) & sweep["meets_target"]]
@@ -693,17 +930,26 @@ class ShipperStudy:
         opt["rank"] = opt["landed_cost"].rank(method="min")
         opt.attrs["units"] = sweep.attrs["units"]
         opt.attrs["assumptions"] = SHIPPER_ASSUMPTIONS
-        return ShipperResults(sweep=sweep, optimum=opt, cautions=self.cautions(sweep))
+        return ShipperResults(
+            sweep=sweep,
+            optimum=opt,
+            cautions=self.cautions(sweep, by_profile),
+            by_profile=by_profile,
+        )
 
-    def design_run(self, name: str, thickness: float) -> pd.DataFrame:
-        """Time series of one design (sized coolant): payload, coolant, ambient [K], fraction left."""
+    def design_run(self, name: str, thickness: float, profile: str | None = None) -> pd.DataFrame:
+        """Time series of one design (sized coolant): payload, coolant, ambient [K], fraction left.
+
+        ``profile``: a name of :attr:`profiles` (default the first).
+        """
         if name not in self.names:
             raise ValueError(f"candidate: unknown {name!r}; valid: {self.names}")
         cand = self.candidates[self.names.index(name)]
         th = np.atleast_1d(positive("thickness", thickness, "m"))
         lay = self._layers(cand, th)
         mass, box = self._size(lay)
-        sim = self.simulate(box["conductance"], mass, duration=1.5 * self.duration)
+        prof = self._profile(profile)
+        sim = self.simulate(box["conductance"], mass, duration=1.5 * self.duration, t_ambient=prof)
         frame = pd.DataFrame(
             {
                 "time": sim.times,
@@ -725,6 +971,193 @@ class ShipperStudy:
         frame.attrs["coolant_mass"] = float(mass[0])
         return frame
 
+    def _profile(self, name: str | None):
+        profiles = self.profiles
+        if name is None:
+            return next(iter(profiles.values()))
+        if name not in profiles:
+            raise ValueError(f"profile: unknown {name!r}; valid: {list(profiles)}")
+        return profiles[name]
+
+    def trace(
+        self,
+        designs: Sequence[tuple[str, float]],
+        profiles: Sequence[str] | None = None,
+        duration: float | None = None,
+        record_every: int = 1,
+    ) -> pd.DataFrame:
+        """Temperature trace of designs over the trip, one block per design and profile.
+
+        Parameters
+        ----------
+        designs : sequence of (str, float)
+            ``(candidate name, sized thickness [m])``; the coolant is sized
+            for the target as in :meth:`sweep`.
+        profiles : sequence of str, optional
+            Names of :attr:`profiles` (default all).
+        duration : float, optional
+            Length of the trace, default 1.5 × the target hold (so the end of
+            a hold just past the target shows). [s]
+        record_every : int
+            Store every n-th time step.
+
+        Returns
+        -------
+        DataFrame
+            Tidy: ``candidate``, ``thickness`` [m], ``profile``, ``time`` [s],
+            ``ambient``, ``payload_temperature``, ``coolant_temperature`` [K],
+            ``coolant_fraction_left`` [-]. ``attrs``: ``units``; ``markers``
+            (a DataFrame, one row per design and profile: ``coolant_mass``
+            [kg], ``hold_time`` [s], ``end_reason``, ``meets_target``,
+            ``time_coolant_spent`` [s] (``inf``: not within the trace),
+            ``time_out_of_range`` [s]); ``band`` (``t_payload_min``,
+            ``t_payload_max``) [K] (``None``: no limit); ``target`` [s];
+            ``cautions`` (tuple of str, with :data:`TRACE_CAUTION`).
+
+        Notes
+        -----
+        The two-node model of :func:`workbench.transient.simulate_hold`;
+        the ambient column is the step-mean ambient of each time step.
+        """
+        designs = list(designs)
+        if not designs:
+            raise ValueError("designs: give at least one (candidate name, thickness [m]) pair")
+        names = list(self.profiles) if profiles is None else list(profiles)
+        for nm in names:
+            self._profile(nm)
+        run = 1.5 * self.duration if duration is None else _one("duration", duration, positive)
+        conds, masses, keys = [], [], []
+        for item in designs:
+            if not (isinstance(item, tuple | list) and len(item) == 2):
+                raise ValueError(
+                    f"designs: each item must be (candidate name, thickness [m]), got {item!r:.60}"
+                )
+            name, thickness = item
+            if name not in self.names:
+                raise ValueError(f"designs: unknown candidate {name!r}; valid: {self.names}")
+            th = np.atleast_1d(positive("thickness", thickness, "m")).astype(float)
+            if th.size != 1:
+                raise ValueError(f"designs: one thickness [m] per design, got {thickness!r:.60}")
+            lay = self._layers(self.candidates[self.names.index(name)], th)
+            mass, box = self._size(lay)
+            conds.append(float(box["conductance"][0]))
+            masses.append(float(mass[0]))
+            keys.append((name, float(th[0])))
+        conds, masses = np.array(conds), np.array(masses)
+        blocks, marks = [], []
+        for nm in names:
+            sim = self.simulate(
+                conds, masses, duration=run, t_ambient=self.profiles[nm], record_every=record_every
+            )
+            for i, (cand, th) in enumerate(keys):
+                blocks.append(
+                    pd.DataFrame(
+                        {
+                            "candidate": cand,
+                            "thickness": th,
+                            "profile": nm,
+                            "time": sim.times,
+                            "ambient": sim.ambient,
+                            "payload_temperature": sim.payload_temperature[i],
+                            "coolant_temperature": sim.coolant_temperature[i],
+                            "coolant_fraction_left": sim.coolant_fraction_left[i],
+                        }
+                    )
+                )
+                marks.append(
+                    {
+                        "candidate": cand,
+                        "thickness": th,
+                        "profile": nm,
+                        "coolant_mass": masses[i],
+                        "hold_time": float(sim.hold_time[i]),
+                        "end_reason": str(sim.reason[i]),
+                        "meets_target": bool(sim.hold_time[i] >= self.duration * (1 - 1e-9)),
+                        "time_coolant_spent": float(sim.time_coolant_spent[i]),
+                        "time_out_of_range": float(sim.time_out_of_range[i]),
+                    }
+                )
+        frame = pd.concat(blocks, ignore_index=True)
+        markers = pd.DataFrame(marks)
+        markers.attrs["units"] = {
+            "thickness": "m",
+            "coolant_mass": "kg",
+            "hold_time": "s",
+            "time_coolant_spent": "s",
+            "time_out_of_range": "s",
+        }
+        frame.attrs["units"] = {
+            "thickness": "m",
+            "time": "s",
+            "ambient": "K",
+            "payload_temperature": "K",
+            "coolant_temperature": "K",
+            "coolant_fraction_left": "-",
+        }
+        frame.attrs["markers"] = markers
+        frame.attrs["band"] = (self.t_payload_min, self.t_payload_max)
+        frame.attrs["target"] = float(self.duration)
+        frame.attrs["cautions"] = tuple(dict.fromkeys((*self.cautions(), TRACE_CAUTION)))
+        return frame
+
+
+def _normalise_profile(prof):
+    """A profile as (times_s list, temps_K list), or a float for a constant."""
+    times, temps = transient.ambient_profile(prof)
+    if isinstance(prof, tuple | list) or np.ndim(prof) > 0:
+        return (times.tolist(), temps.tolist())
+    return float(temps[0])
+
+
+def _same_profile(a, b) -> bool:
+    try:
+        ta, xa = transient.ambient_profile(a)
+        tb, xb = transient.ambient_profile(b)
+    except ValueError:
+        return False
+    return ta.shape == tb.shape and bool(np.all(ta == tb) and np.all(xa == xb))
+
+
+def _combine_profiles(frame: pd.DataFrame, per: dict, duration: float, minimal: bool = False) -> None:
+    """Overall hold columns from per-profile simulations: the limiting (shortest) profile's."""
+    names = list(per)
+    holds = np.stack([per[n].hold_time for n in names])
+    lim = np.argmin(holds, axis=0)  # first profile with the shortest hold
+    cols = np.arange(holds.shape[1])
+
+    def pick(attr):
+        return np.stack([getattr(per[n], attr) for n in names])[lim, cols]
+
+    frame["hold_time_simulated"] = pick("hold_time")
+    frame["end_reason"] = pick("reason")
+    frame["limiting_profile"] = np.array(names, dtype=object)[lim]
+    if minimal:
+        return
+    frame["time_coolant_spent"] = pick("time_coolant_spent")
+    frame["time_out_of_range"] = pick("time_out_of_range")
+    frame["min_payload_temperature"] = np.min(
+        [per[n].payload_temperature.min(axis=-1) for n in names], axis=0
+    )
+    frame["max_payload_temperature"] = np.max(
+        [per[n].payload_temperature.max(axis=-1) for n in names], axis=0
+    )
+    ok = holds >= duration * (1 - 1e-9)
+    frame["meets_target"] = ok.all(axis=0)
+    frame["failing_profiles"] = [
+        ", ".join(n for n, good in zip(names, ok[:, j], strict=True) if not good)
+        for j in range(holds.shape[1])
+    ]
+
+
+def _one(name: str, value, check) -> float:
+    """One number checked by ``check``; an array or a boolean is refused naming the field and unit."""
+    arr = check(name, value, _INPUT_UNITS[name])
+    if arr.size != 1:
+        raise ValueError(
+            f"{name}: expected one number [{_INPUT_UNITS[name]}], got an array of shape {arr.shape}"
+        )
+    return float(arr.reshape(()))
+
 
 _INPUT_UNITS = {
     "payload_length": "m",
@@ -738,6 +1171,16 @@ _INPUT_UNITS = {
     "time_step": "s",
     "coupling_coefficient": "W/(m²·K)",
     "t_payload_start": "K",
+    "t_payload_min": "K",
+    "t_payload_max": "K",
+    "t_coolant_start": "K",
+    "r_si": "m²·K/W",
+    "r_se": "m²·K/W",
+    "rate_per_kg": "currency/kg",
+    "fixed_fee": "currency",
+    "coolant_wall_fraction": "-",
+    "coolant_packing_fraction": "-",
+    "safety_factor": "-",
 }
 
 
@@ -864,3 +1307,199 @@ def hold_figure(run: pd.DataFrame, t_payload_min=None, t_payload_max=None, title
     fig.update_yaxes(title_text="temperature [°C]", secondary_y=False)
     fig.update_yaxes(title_text="coolant left [%]", range=[0, 105], secondary_y=True)
     return fig
+
+
+#: Colours of the end-of-hold markers by reason (the two failing ends that
+#: matter most, coolant spent and payload too cold, get equal weight).
+_REASON_SYMBOL = {
+    "coolant spent": "diamond",
+    "payload too warm": "triangle-up",
+    "payload too cold": "triangle-down",
+    "held for the whole run": "circle",
+}
+_TRACE_COLOURS = ("#1c7ed6", "#d9480f", "#2b8a3e", "#862e9c", "#e67700", "#0b7285")
+_PROFILE_DASH = ("solid", "dash", "dot", "dashdot")
+
+
+def trace_figure(trace: pd.DataFrame, system: str = "SI", title: str | None = None, chosen=None):
+    """Temperature trace of designs over the trip (plotly ``go.Figure``).
+
+    Payload (solid, thick), coolant (thin) and ambient (grey) temperature
+    against time; the allowed payload band shaded; the target as a vertical
+    line; per design and profile a marker at the end of the hold, by reason
+    (coolant spent / payload too warm / payload too cold, same size), and a
+    cross where the coolant runs out. Hover: time [h] and temperature [°C]
+    (SI) or [°F] (US). The cautions of ``trace.attrs["cautions"]`` (with
+    "a calculated trace does not qualify a shipper") are printed under the
+    plot.
+
+    Parameters
+    ----------
+    trace : DataFrame
+        :meth:`ShipperStudy.trace`.
+    system : {"SI", "US"}
+        Temperature in °C or °F (time always in hours).
+    title : str, optional
+    chosen : (str, float), optional
+        The design drawn widest (default the first).
+    """
+    import plotly.graph_objects as go
+
+    from workbench import units
+
+    units.check_system(system)
+    tu = units.display_unit("temperature", system)
+
+    def temp(x):
+        return np.asarray(units.from_si(np.asarray(x, float), "temperature", system), float)
+
+    marks = trace.attrs.get("markers", pd.DataFrame())
+    designs = list(dict.fromkeys(zip(trace["candidate"], trace["thickness"], strict=True)))
+    profiles = list(dict.fromkeys(trace["profile"]))
+    chosen = designs[0] if chosen is None else (chosen[0], float(chosen[1]))
+    fig = go.Figure()
+    for j, prof in enumerate(profiles):
+        sub = trace[trace["profile"] == prof]
+        first = sub[(sub["candidate"] == designs[0][0]) & (sub["thickness"] == designs[0][1])]
+        fig.add_trace(
+            go.Scatter(
+                x=first["time"] / 3600.0,
+                y=temp(first["ambient"]),
+                name=f"ambient ({prof})",
+                mode="lines",
+                line={"color": "#868e96", "width": 1.5, "dash": _PROFILE_DASH[j % 4], "shape": "hv"},
+                hovertemplate=f"ambient ({prof})<br>t = %{{x:.2f}} h<br>T = %{{y:.1f}} {tu}<extra></extra>",
+            )
+        )
+    for i, (cand, th) in enumerate(designs):
+        colour = _TRACE_COLOURS[i % len(_TRACE_COLOURS)]
+        wide = (cand, th) == chosen
+        label = f"{cand}, {th * 1000:.0f} mm"
+        for j, prof in enumerate(profiles):
+            sub = trace[
+                (trace["candidate"] == cand) & (trace["thickness"] == th) & (trace["profile"] == prof)
+            ]
+            h = sub["time"] / 3600.0
+            dash = _PROFILE_DASH[j % 4]
+            for col, what, width in (
+                ("payload_temperature", "payload", 3.5 if wide else 2.0),
+                ("coolant_temperature", "coolant", 1.2),
+            ):
+                fig.add_trace(
+                    go.Scatter(
+                        x=h,
+                        y=temp(sub[col]),
+                        name=f"{label}: {what} ({prof})",
+                        mode="lines",
+                        opacity=1.0 if what == "payload" else 0.6,
+                        line={"color": colour, "width": width, "dash": dash},
+                        hovertemplate=(
+                            f"{_esc(label)}: {what} ({_esc(prof)})<br>t = %{{x:.2f}} h"
+                            f"<br>T = %{{y:.1f}} {tu}<extra></extra>"
+                        ),
+                    )
+                )
+            if marks.empty:
+                continue
+            mk = marks[
+                (marks["candidate"] == cand) & (marks["thickness"] == th) & (marks["profile"] == prof)
+            ]
+            if mk.empty:
+                continue
+            mk = mk.iloc[0]
+            end, reason = float(mk["hold_time"]), str(mk["end_reason"])
+            tp_end = float(np.interp(end, sub["time"], sub["payload_temperature"]))
+            fig.add_trace(
+                go.Scatter(
+                    x=[end / 3600.0],
+                    y=[float(temp(tp_end))],
+                    name=f"{label}: end of hold ({prof}): {reason}",
+                    mode="markers",
+                    marker={
+                        "symbol": _REASON_SYMBOL.get(reason, "circle"),
+                        "size": 14,
+                        "color": colour,
+                        "line": {"color": "#212529", "width": 1.5},
+                    },
+                    hovertemplate=(
+                        f"<b>end of hold: {reason}</b><br>{_esc(label)} ({_esc(prof)})"
+                        f"<br>t = %{{x:.2f}} h<br>payload T = %{{y:.1f}} {tu}<extra></extra>"
+                    ),
+                )
+            )
+            t_sp = float(mk["time_coolant_spent"])
+            if np.isfinite(t_sp) and t_sp <= float(sub["time"].max()):
+                tc_sp = float(np.interp(t_sp, sub["time"], sub["coolant_temperature"]))
+                fig.add_trace(
+                    go.Scatter(
+                        x=[t_sp / 3600.0],
+                        y=[float(temp(tc_sp))],
+                        name=f"{label}: coolant runs out ({prof})",
+                        mode="markers",
+                        marker={"symbol": "x", "size": 12, "color": colour},
+                        hovertemplate=(
+                            f"<b>coolant runs out</b><br>{_esc(label)} ({_esc(prof)})"
+                            f"<br>t = %{{x:.2f}} h<br>coolant T = %{{y:.1f}} {tu}<extra></extra>"
+                        ),
+                    )
+                )
+    lo, hi = trace.attrs.get("band", (None, None))
+    if lo is not None or hi is not None:
+        all_t = temp(trace[["ambient", "payload_temperature"]].to_numpy().ravel())
+        y0 = float(temp(lo)) if lo is not None else float(np.min(all_t))
+        y1 = float(temp(hi)) if hi is not None else float(np.max(all_t))
+        fig.add_hrect(
+            y0=y0,
+            y1=y1,
+            fillcolor="#40c057",
+            opacity=0.12,
+            line_width=0,
+            annotation_text="allowed payload band",
+            annotation_position="top left",
+        )
+    target = trace.attrs.get("target")
+    if target:
+        fig.add_vline(
+            x=float(target) / 3600.0,
+            line={"color": "#c92a2a", "width": 1.5, "dash": "dash"},
+            annotation_text=f"target {float(target) / 3600:.0f} h",
+            annotation_position="top right",
+        )
+    notes = list(dict.fromkeys([TRACE_CAUTION, *trace.attrs.get("cautions", ())]))
+    foot = "<br>".join(_wrap(c) for c in notes)
+    fig.add_annotation(
+        text=foot,
+        xref="paper",
+        yref="paper",
+        x=0,
+        y=-0.16,
+        xanchor="left",
+        yanchor="top",
+        showarrow=False,
+        align="left",
+        font={"size": 10, "color": "#495057"},
+    )
+    fig.update_layout(
+        title=title or "Temperature trace of the trip (calculated, two-node model)",
+        template="plotly_white",
+        xaxis_title="time [h]",
+        yaxis_title=f"temperature [{tu}]",
+        height=560 + 26 * sum(_wrap(c).count("<br>") + 1 for c in notes),
+        margin={"b": 80 + 26 * sum(_wrap(c).count("<br>") + 1 for c in notes)},
+        legend={"font": {"size": 10}},
+        hovermode="closest",
+    )
+    return fig
+
+
+def _esc(text: str) -> str:
+    import html
+
+    return html.escape(str(text))
+
+
+def _wrap(text: str, width: int = 140) -> str:
+    """Escaped text broken into lines of ``width`` characters joined by <br>."""
+    import textwrap
+
+    return "<br>".join(_esc(line) for line in textwrap.wrap(str(text), width)) or ""

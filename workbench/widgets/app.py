@@ -31,6 +31,7 @@ from workbench.widgets.charts import (
     WallView,
     compute_view,
 )
+from workbench.widgets.decision import CompareBox, DecisionForm
 from workbench.widgets.fields import UnitField, show_message
 from workbench.widgets.parts import cell, guard, header_cell, section
 from workbench.widgets.picker import CandidatePicker, short_label
@@ -123,6 +124,12 @@ class Workbench(widgets.VBox):
             self.study.budget = HeatBudget("flux", 10.0)
         title = title or (DEMO_TITLE if demo else "Wall comparison")
         self.title = title
+        # kept from an opened scenario file so that Save writes them back unchanged
+        self._criteria: tuple = ()
+        self._constraints: tuple = ()
+        self._notes = ""
+        self.decision_form = DecisionForm(on_change=self._decision_changed)
+        self.compare_box = CompareBox(self.current_scenario)
         self.scenario_bar = ScenarioBar(self.current_scenario, self.open_study, autosave_delay)
         self._build(title, demo)
         self._set_candidates_ui()
@@ -246,8 +253,12 @@ class Workbench(widgets.VBox):
             widgets.HBox([left, right], layout=w(flex_flow="row wrap", align_items="flex-start")),
             section("Results at the design point (each candidate at its required thickness)"),
             self.table.box,
+            section("Decision (saved into the scenario file; the report shows it)"),
+            self.decision_form.box,
             section("Scenario file (inputs, candidates and the chosen one, for the meeting to re-run)"),
             self.scenario_bar.box,
+            section("What changed since an earlier scenario file"),
+            self.compare_box.box,
             section("Long computations"),
             widgets.HBox([widgets.VBox([self.sweep_button, self.mc_button, self.stack_button]), self.runner.box]),
             self.sweep_result, self.mc_result, self.stack_result,
@@ -396,6 +407,7 @@ class Workbench(widgets.VBox):
         for chart in (self.flux_chart, self.req_chart, self.trade_chart, self.prof_chart):
             chart.set_candidates(labels, srcs, self.currency)
         self._chosen = min(self._chosen, len(labels) - 1)
+        self.decision_form.set_candidates(self.study.names)
         self._silent = True
         try:
             self.highlight.options = [(lab, i) for i, lab in enumerate(labels)]
@@ -533,8 +545,19 @@ class Workbench(widgets.VBox):
         """The scenario of what is shown now (inputs, candidates, display system, chosen one)."""
         from workbench.scenario import snapshot
 
-        return snapshot(self.study, system=self.system, chosen=self.study.names[self._chosen],
-                        title=self.title)
+        decided = self.decision_form.values()["chosen"]
+        chosen = decided if decided in self.study.names else self.study.names[self._chosen]
+        scen = snapshot(self.study, system=self.system, chosen=chosen, title=self.title, notes=self._notes,
+                        criteria=self._criteria, constraints=self._constraints)
+        return self.decision_form.apply(scen)
+
+    def _decision_changed(self) -> None:
+        """The decision form changed: mark its candidate in the charts and schedule the autosave."""
+        chosen = self.decision_form.values()["chosen"]
+        if chosen and chosen in self.study.names and self.study.names.index(chosen) != self._chosen:
+            self.highlight.value = self.study.names.index(chosen)  # refreshes and autosaves
+        else:
+            self.scenario_bar.changed()
 
     def open_study(self, study, scenario=None) -> None:
         """Show another wall study (e.g. one loaded from a scenario file)."""
@@ -548,6 +571,11 @@ class Workbench(widgets.VBox):
         if scenario is not None and getattr(scenario, "title", ""):
             self.title = scenario.title
             self.header.value = self._header_html(self.title, "demo" in self.title.lower())
+        old_kept = (self._criteria, self._constraints, self._notes)
+        if scenario is not None:
+            self._criteria = tuple(getattr(scenario, "criteria", ()) or ())
+            self._constraints = tuple(getattr(scenario, "constraints", ()) or ())
+            self._notes = getattr(scenario, "notes", "") or ""
         self.study = study
         chosen = getattr(getattr(scenario, "decision", None), "chosen", None)
         self._chosen = study.names.index(chosen) if chosen in study.names else 0
@@ -575,9 +603,12 @@ class Workbench(widgets.VBox):
             if study.t_inside != study.t_outside:
                 self._direction = -1.0 if study.t_inside < study.t_outside else 1.0
             self._set_candidates_ui()
+            if scenario is not None:
+                self.decision_form.load(getattr(scenario, "decision", None))
             self.refresh()
         except Exception:
             self.study, self._chosen, self.system = old
+            self._criteria, self._constraints, self._notes = old_kept
             self._set_candidates_ui()
             self.refresh()
             raise

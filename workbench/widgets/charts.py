@@ -34,6 +34,10 @@ __all__ = [
     "ProfileChart",
     "CRITERIA",
     "EACH_TRACE_LIMIT",
+    "shipper_trace_figure",
+    "update_shipper_trace",
+    "housing_warm_up_figure",
+    "update_housing_warm_up",
 ]
 
 #: Up to this many candidates the flux chart draws one coloured trace each
@@ -532,3 +536,92 @@ def _num(v: float, sig: int = 3) -> str:
     decimals = max(sig - 1 - exponent, 0)
     text = f"{round(v, sig - 1 - exponent):.{decimals}f}"
     return text.rstrip("0").rstrip(".") if "." in text else text
+
+
+# ---------------------------------------------------------------------------
+# Shipper: temperature trace of a trip
+# ---------------------------------------------------------------------------
+def shipper_trace_figure(trace, system: str = "SI", title: str | None = None, chosen=None) -> go.Figure:
+    """Trace chart of :meth:`workbench.studies.shipper.ShipperStudy.trace` (a ``go.Figure``).
+
+    Payload, coolant and ambient temperature against time [h], the allowed
+    band, the target, the end of each hold by reason and the moment the
+    coolant runs out; hover shows time [h] and temperature [°C] or [°F].
+    The cautions (medicines, dry ice, freezing, and "a calculated trace does
+    not qualify a shipper") are printed under the plot. The figure itself is
+    built by :func:`workbench.studies.shipper.trace_figure` (no widgets), so
+    the report draws the same chart.
+    """
+    from workbench.studies.shipper import trace_figure
+
+    return trace_figure(trace, system=system, title=title, chosen=chosen)
+
+
+def update_shipper_trace(fig: go.Figure, trace, system: str = "SI", title: str | None = None,
+                         chosen=None) -> go.Figure:
+    """Replace the traces and layout of an existing trace ``fig`` in one batch (for a PlotView)."""
+    new = shipper_trace_figure(trace, system=system, title=title, chosen=chosen)
+    with fig.batch_update():
+        fig.data = ()
+        fig.add_traces(list(new.data))
+        fig.layout = new.layout
+    return fig
+
+
+# ---------------------------------------------------------------------------
+# Housing: warm-up over a use session
+# ---------------------------------------------------------------------------
+def housing_warm_up_figure(frame, system: str = "SI", title: str | None = None, chosen=None,
+                           colours=None) -> go.Figure:
+    """Warm-up chart of :meth:`workbench.studies.housing.HousingStudy.warm_up_frame` (a ``go.Figure``).
+
+    Mean surface temperature of each candidate over the use session [min],
+    the touch limit of each class for the chosen contact time, and a marker
+    where a candidate reaches its limit; hover shows time and temperature
+    with units; the touch caution is printed under the plot. The figure is
+    built by :func:`workbench.studies.housing.warm_up_figure` (no widgets),
+    so the report draws the same chart. ``colours`` default to the
+    candidate colours of the other workbench charts.
+    """
+    from workbench.studies.housing import warm_up_figure
+
+    if colours is None:
+        n = len(dict.fromkeys(frame["candidate"]))
+        colours = [style.candidate_colour(i) for i in range(n)]
+    return warm_up_figure(frame, system=system, title=title, chosen=chosen, colours=colours)
+
+
+def update_housing_warm_up(fig: go.Figure, frame, system: str = "SI", title: str | None = None,
+                           chosen=None, colours=None, width: int | None = None,
+                           height: int | None = None) -> go.Figure:
+    """Bring an existing warm-up ``fig`` up to date in one batch (for a PlotView).
+
+    When the traces are the same kind and number as before (same candidates and touch
+    classes), only their data, names and hover texts change, in place; otherwise the
+    figure is rebuilt. ``width`` and ``height`` [px] keep the panel's size.
+    """
+    from workbench.studies.housing import warm_up_traces
+
+    traces, layout = warm_up_traces(frame, system=system, title=title, chosen=chosen, colours=colours)
+    same = len(fig.data) == len(traces) and all(
+        old.name == new["name"] for old, new in zip(fig.data[: len(traces) - 1], traces[:-1], strict=False)
+        if not str(new["name"]).startswith("touch limit")
+    )
+    with fig.batch_update():
+        if same:
+            for old, new in zip(fig.data, traces, strict=True):
+                old.update({k: v for k, v in new.items() if k in ("x", "y", "name", "hovertemplate", "text")})
+            fig.layout.title.text = layout["title"]["text"]
+            fig.layout.xaxis.title.text = layout["xaxis"]["title"]["text"]
+            fig.layout.yaxis.title.text = layout["yaxis"]["title"]["text"]
+        else:
+            new_fig = housing_warm_up_figure(frame, system=system, title=title, chosen=chosen,
+                                             colours=colours)
+            fig.data = ()
+            fig.add_traces(list(new_fig.data))
+            fig.layout = new_fig.layout
+        if width is not None:
+            fig.layout.width = width
+        if height is not None:
+            fig.layout.height = height
+    return fig

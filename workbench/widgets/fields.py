@@ -59,6 +59,8 @@ class UnitField:
     Notes
     -----
     A bare number is read in the unit currently displayed for the field.
+    ``unit`` may be a callable of the SI value that picks the unit to show
+    (e.g. seconds for a tap, minutes for a session).
     """
 
     def __init__(
@@ -101,14 +103,17 @@ class UnitField:
         return self._error
 
     _error = ""
+    _shown_unit: str | None = None
 
     def _write(self, value_si: float) -> None:
         self._silent = True
         try:
-            if self.unit is None:
+            unit = self.unit(value_si) if callable(self.unit) else self.unit
+            self._shown_unit = unit
+            if unit is None:
                 self.text.value = units.format_quantity(value_si, self.kind, self.system, sig=4)
             else:
-                self.text.value = f"{float(units.from_si(value_si, self.kind, self.system, unit=self.unit)):.4g} {self.unit}"
+                self.text.value = f"{float(units.from_si(value_si, self.kind, self.system, unit=unit)):.4g} {unit}"
         finally:
             self._silent = False
 
@@ -133,7 +138,7 @@ class UnitField:
     def _changed(self, change) -> None:
         if self._silent:
             return
-        default = self.unit or units.KINDS[self.kind].display[self.system][0]
+        default = self._shown_unit or units.KINDS[self.kind].display[self.system][0]
         try:
             value = units.parse(change["new"], self.kind, self.field, default_unit=default)
             self._on_change(value)

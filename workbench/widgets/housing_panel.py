@@ -3,7 +3,8 @@
 :class:`HousingPanel` is an ipywidgets ``VBox``. It holds a
 :class:`~workbench.studies.housing.HousingStudy`; every number it shows comes
 from the study's methods (:meth:`~HousingStudy.results`,
-:meth:`~HousingStudy.emissivity_sweep`, :meth:`~HousingStudy.power_sweep`).
+:meth:`~HousingStudy.emissivity_sweep`, :meth:`~HousingStudy.power_sweep`,
+:meth:`~HousingStudy.warm_up_frame`).
 The panel converts units and draws.
 
 The power slider recomputes on release (about half a second); the component
@@ -22,9 +23,14 @@ import numpy as np
 import plotly.graph_objects as go
 
 from workbench import units
-from workbench.studies.housing import HOUSING_CAUTIONS, Component, HousingStudy
+from workbench.studies.housing import (
+    HOUSING_CAUTIONS,
+    TOUCH_RESULT_CAUTION,
+    Component,
+    HousingStudy,
+)
 from workbench.widgets import style
-from workbench.widgets.charts import _affine, _base_layout
+from workbench.widgets.charts import _affine, _base_layout, update_housing_warm_up
 from workbench.widgets.fields import UnitField, show_message
 from workbench.widgets.parts import (
     cautions_html,
@@ -48,9 +54,28 @@ HOUSING_PANEL_CAUTIONS = (
     "Touch limits depend on the product standard that applies to your product and are confirmed by "
     "testing the product; the shipped limits are skin burn thresholds, not product limits.",
     "All temperatures are first-order steady-state estimates: confirm with a prototype measurement.",
+    TOUCH_RESULT_CAUTION,
 )
 
 _LIMIT_DASH = ("dash", "dot", "dashdot", "longdash", "longdashdot")
+
+
+#: Contact times offered as buttons beside the typed field: a tap, a grab, 1 min, 10 min, 8 h. [s]
+CONTACT_PRESETS: tuple[tuple[str, float], ...] = (
+    ("1 s", 1.0), ("10 s", 10.0), ("1 min", 60.0), ("10 min", 600.0), ("8 h", 8 * 3600.0))
+
+
+def _contact_unit(seconds: float) -> str:
+    """The unit a contact time is shown in: s below 1 min, min below 3 h, h above."""
+    return "s" if seconds < 60.0 else ("min" if seconds < 3 * 3600.0 else "h")
+
+
+def _preset_of(seconds: float) -> float | None:
+    """The preset button for a contact time [s], or None when it is not one of them."""
+    for _, value in CONTACT_PRESETS:
+        if abs(float(seconds) - value) <= 1e-9 * value:
+            return value
+    return None
 
 
 def demo_housing_study() -> HousingStudy:
@@ -100,7 +125,8 @@ class HousingPanel(widgets.VBox):
     Notes
     -----
     Inputs: dissipated power (field and slider), ambient temperature, touch
-    contact duration. Bad input shows a message beside its field and keeps the
+    contact duration, use-session duration and the contents' heat capacity
+    (for the warm-up chart and the time to the touch limit). Bad input shows a message beside its field and keeps the
     last good result; errors go to the ``workbench.widgets`` logger.
     """
 
@@ -122,6 +148,7 @@ class HousingPanel(widgets.VBox):
         self.timings: dict[str, float] = {}
         self.validity: tuple[str, ...] = ()
         self.results, self.eps_sweep = self._compute(s)
+        self.warm = self._next_warm
         self.pow_sweep = self._power_sweep(s)
         self.classes = list(dict.fromkeys(self.results["touch_class"]))
         self._silent = False
@@ -136,11 +163,16 @@ class HousingPanel(widgets.VBox):
         t0 = time.perf_counter()
         with warnings.catch_warnings(record=True) as caught:
             warnings.simplefilter("always")
-            res = study.results()
+            w = study.warm_up()  # once, for the table's time to the limit and for the chart
+            res = study.results(warm=w)
         t1 = time.perf_counter()
         eps = study.emissivity_sweep(self.emissivities)
-        self.timings = {"results": t1 - t0, "emissivity_sweep": time.perf_counter() - t1}
+        t2 = time.perf_counter()
+        warm = study.warm_up_frame(warm=w)
+        self.timings = {"results": t1 - t0, "emissivity_sweep": t2 - t1,
+                        "warm_up": time.perf_counter() - t2}
         self.validity = tuple(dict.fromkeys(str(w.message) for w in caught))
+        self._next_warm = warm
         return res, eps
 
     def _power_sweep(self, study: HousingStudy):
@@ -168,7 +200,20 @@ class HousingPanel(widgets.VBox):
         self.f_ambient = UnitField("Ambient", "temperature", "ambient temperature", s.t_ambient,
                                    lambda v: self._apply(t_ambient=v), sys_, "hw-housing-ambient")
         self.f_contact = UnitField("Touch contact", "time", "contact duration", s.contact_duration,
-                                   lambda v: self._apply(contact_duration=v), sys_, "hw-housing-contact", unit="min")
+                                   lambda v: self._apply(contact_duration=v), sys_, "hw-housing-contact",
+                                   unit=_contact_unit)
+        self.contact_presets = widgets.ToggleButtons(
+            options=[(label, seconds) for label, seconds in CONTACT_PRESETS],
+            value=_preset_of(s.contact_duration), tooltips=[
+                "a tap", "a grab", "holding for a minute", "holding for 10 minutes",
+                "a whole working day (8 h and longer)"],
+            style={"button_width": "52px"}, layout=w(margin="0 0 4px 118px"))
+        self.contact_presets.add_class("hw-housing-contact-presets")
+        self.f_session = UnitField("Use session", "time", "use-session duration", s.session_duration,
+                                   lambda v: self._apply(session_duration=v), sys_, "hw-housing-session", unit="min")
+        self.f_contents = UnitField("Contents heat cap.", "heat_capacity", "contents' heat capacity",
+                                    s.content_heat_capacity, lambda v: self._apply(content_heat_capacity=v), sys_,
+                                    "hw-housing-contents")
         self.slider = widgets.FloatSlider(description="Power", continuous_update=False, readout_format=".3g",
                                           style={"description_width": "118px"}, layout=w(width="330px"))
         self.slider.add_class("hw-housing-power-slider")
@@ -184,7 +229,11 @@ class HousingPanel(widgets.VBox):
                                                            showlegend=True, legend=legend))
         self.fig_pow = go.Figure(layout=_base_layout("Hot-spot temperature vs power", 425, 540,
                                                            showlegend=True, legend=legend, shapes=[line]))
+        self.fig_warm = go.Figure(layout=_base_layout("Mean surface temperature over the use session", 540, 470,
+                                                      showlegend=True))
         self.view_eps, self.view_pow = PlotView(self.fig_eps), PlotView(self.fig_pow)
+        self.view_warm = PlotView(self.fig_warm)
+        self.view_warm.add_class("hw-housing-chart-warmup")
         self.view_eps.add_class("hw-housing-chart-emissivity")
         self.view_pow.add_class("hw-housing-chart-power")
         n = len(s.names)
@@ -210,11 +259,25 @@ class HousingPanel(widgets.VBox):
         self._children = panel_children(
             self.header, self.system_toggle, self.cautions, self.status,
             [section("Conditions"), self.f_power.box, self.f_ambient.box, self.f_contact.box,
+             self.contact_presets,
+             section("Use session (warm-up)"), self.f_session.box, self.f_contents.box,
              section("Power"), self.slider, hint, self.notes],
-            "hw-housing-inputs", [self.view_eps, self.view_pow],
+            "hw-housing-inputs", [self.view_eps, self.view_pow, self.view_warm],
             "Results per candidate (pass/fail against the touch and inside-air limits)", self.table)
         self.system_toggle.observe(self._toggled, "value")
         self.slider.observe(self._slid, "value")
+        self.contact_presets.observe(self._preset_chosen, "value")
+
+    def _preset_chosen(self, change) -> None:
+        if self._silent or change["new"] is None:
+            return
+        seconds = float(change["new"])
+
+        def apply():
+            self._apply(contact_duration=seconds)
+            self.f_contact.set_value(seconds)
+
+        guard(self.status, apply)
 
     def _toggled(self, change) -> None:
         if not self._silent:
@@ -239,6 +302,12 @@ class HousingPanel(widgets.VBox):
         res, eps = self._compute(new)
         pow_sweep = self._power_sweep(new)
         self.study, self.results, self.eps_sweep, self.pow_sweep = new, res, eps, pow_sweep
+        self.warm = self._next_warm
+        self._silent = True
+        try:  # the preset buttons show the typed contact time when it is one of theirs
+            self.contact_presets.value = _preset_of(new.contact_duration)
+        finally:
+            self._silent = False
         self._redraw()
 
     def _set_power(self, power: float) -> None:
@@ -253,6 +322,7 @@ class HousingPanel(widgets.VBox):
                 self.power_max = old_max
                 raise
         self.study, self.results, self.eps_sweep = new, res, eps
+        self.warm = self._next_warm
         self._configure_slider()
         self._redraw()
 
@@ -284,9 +354,9 @@ class HousingPanel(widgets.VBox):
         self._redraw()
 
     def set_inputs(self, **texts: str) -> dict[str, str]:
-        """Type text into fields by name (``power``, ``ambient``, ``contact``); returns each
-        field's message ("" if accepted)."""
-        fields = dict(zip(("power", "ambient", "contact"), self._fields(), strict=True))
+        """Type text into fields by name (``power``, ``ambient``, ``contact``, ``session``,
+        ``contents``); returns each field's message ("" if accepted)."""
+        fields = dict(zip(("power", "ambient", "contact", "session", "contents"), self._fields(), strict=True))
         out = {}
         for name, text in texts.items():
             if name not in fields:
@@ -296,7 +366,7 @@ class HousingPanel(widgets.VBox):
         return out
 
     def _fields(self):
-        return (self.f_power, self.f_ambient, self.f_contact)
+        return (self.f_power, self.f_ambient, self.f_contact, self.f_session, self.f_contents)
 
     # ---------------------------------------------------------------- drawing
     def _limits(self) -> list[float]:
@@ -304,8 +374,16 @@ class HousingPanel(widgets.VBox):
         return [float(r.loc[r["touch_class"] == cls, "touch_limit"].iloc[0]) for cls in self.classes]
 
     def _redraw(self) -> None:
+        # charts first (the power chart, beside the slider, leads), then the table and notes:
+        # the browser applies messages in order, so the chart the user is watching moves first
         self._redraw_figures()
         self.resync()
+        self._draw_table()
+        self.cautions.value = cautions_html(HOUSING_PANEL_CAUTIONS, HOUSING_CAUTIONS)
+        self.notes.value = ("" if not self.validity else
+                            '<div class="hw-hint">Outside a correlation\'s validity range: '
+                            + html.escape("; ".join(self.validity)) + "</div>")
+        show_message(self.status, "")
 
     def _redraw_figures(self) -> None:
         s, sys_, r = self.study, self.system, self.results
@@ -354,19 +432,18 @@ class HousingPanel(widgets.VBox):
                 f"Mean surface temperature vs emissivity at {units.format_quantity(s.power, 'power', sys_)}")
             self.fig_pow.layout.title.text = (
                 f"Hot spot vs power — current {units.format_quantity(s.power, 'power', sys_)}")
-        self._draw_table()
-        self.cautions.value = cautions_html(HOUSING_PANEL_CAUTIONS, HOUSING_CAUTIONS)
-        self.notes.value = ("" if not self.validity else
-                            '<div class="hw-hint">Outside a correlation\'s validity range: '
-                            + html.escape("; ".join(self.validity)) + "</div>")
-        show_message(self.status, "")
+        update_housing_warm_up(
+            self.fig_warm, self.warm, sys_,
+            title=(f"Mean surface over a {s.session_duration / 60.0:.3g}-min session at "
+                   f"{units.format_quantity(s.power, 'power', sys_)}"),
+            colours=[style.candidate_colour(i) for i in range(self._n)], width=540, height=470)
 
     def _draw_table(self) -> None:
         sys_, r = self.system, self.results
         cols = (("Candidate", None), ("Wall", "thickness"), ("ε", "dimensionless"), ("Inside air", "temperature"),
                 ("Mean surface", "temperature"), ("Hot spot", "temperature"), ("Touch limit", "temperature"),
                 ("Margin, surface", "temperature_difference"), ("Margin, hot spot", "temperature_difference"),
-                ("Passes", "flag"), ("Why not", None))
+                ("Time to touch limit [min]", None), ("Passes", "flag"), ("Why not", None))
         head = "".join(header_cell(t, k, sys_) for t, k in cols)
         rows = []
         for name, row in r.iterrows():
@@ -380,16 +457,27 @@ class HousingPanel(widgets.VBox):
                         + cell(row["emissivity"], "dimensionless", sys_)
                         + cell(row["t_air_inside"], "temperature", sys_) + cell(row["t_surface"], "temperature", sys_)
                         + cell(row["t_hot_spot"], "temperature", sys_) + cell(row["touch_limit"], "temperature", sys_)
-                        + margin + flag_cell(bool(row["passes"]), "✓ pass", "✗ fail")
+                        + margin + self._reach_cell(float(row["time_to_touch_limit"]))
+                        + flag_cell(bool(row["passes"]), "✓ pass", "✗ fail")
                         + cell(row["why_not"] or "—", None, sys_) + "</tr>")
         self.table.value = (f"<table><thead><tr>{head}</tr></thead><tbody>{''.join(rows)}</tbody></table>"
                             '<div class="hw-hint">Margin = touch limit − temperature (negative: above the '
                             "limit). Touch limits as entered in the study (default: skin burn thresholds, "
-                            "not product limits).</div>")
+                            "not product limits). Time to touch limit: when the mean surface reaches it during "
+                            "the use session, warming from room temperature (the hot spot gets there sooner). "
+                            + html.escape(TOUCH_RESULT_CAUTION) + "</div>")
+
+    def _reach_cell(self, seconds: float) -> str:
+        if seconds == 0.0:
+            return '<td class="hw-bad">at start</td>'
+        if not np.isfinite(seconds):
+            return "<td>not within session</td>"
+        return f'<td class="hw-bad">{seconds / 60.0:.1f}</td>'
 
     # ------------------------------------------------------------ display
     def resync(self) -> HousingPanel:
-        """Send both charts' changes to the browser (a view opened later asks for the whole chart)."""
-        self.view_eps.push()
+        """Send the charts' changes to the browser (a view opened later asks for the whole chart)."""
         self.view_pow.push()
+        self.view_eps.push()
+        self.view_warm.push()
         return self

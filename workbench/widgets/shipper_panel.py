@@ -26,8 +26,9 @@ import plotly.graph_objects as go
 
 from workbench import units
 from workbench.studies.shipper import ShipperStudy
+from workbench.transient import ambient_profile
 from workbench.widgets import style
-from workbench.widgets.charts import _base_layout
+from workbench.widgets.charts import _base_layout, update_shipper_trace
 from workbench.widgets.fields import LOG, UnitField, show_message
 from workbench.widgets.parts import (
     cautions_html,
@@ -128,6 +129,31 @@ def _peak(t_ambient) -> float:
     return float(t_ambient)
 
 
+def _study_peak(study: ShipperStudy) -> float:
+    """Hottest ambient over all of the study's named profiles [K]."""
+    return max(_peak(p) for p in study.profiles.values())
+
+
+def _peak_changes(study: ShipperStudy, peak: float) -> dict:
+    """Study changes that move the hottest profile's hottest step to ``peak`` [K] (shape kept)."""
+    if study.ambient_profiles is None:
+        return {"t_ambient": _shift_to_peak(study.t_ambient, peak)}
+    profiles = dict(study.ambient_profiles)
+    hottest = max(profiles, key=lambda n: _peak(profiles[n]))
+    profiles[hottest] = _shift_to_peak(profiles[hottest], peak)
+    return {"ambient_profiles": profiles, "t_ambient": 298.15}
+
+
+def _with_profile(study: ShipperStudy, name: str, profile) -> dict:
+    """Study changes that add (or replace) the named profile ``name``."""
+    name = str(name).strip()
+    if not name:
+        raise ValueError("profile name: give a name for the loaded profile, e.g. 'summer'")
+    profiles = dict(study.profiles)
+    profiles[name] = profile
+    return {"ambient_profiles": profiles, "t_ambient": 298.15}
+
+
 def _shift_to_peak(t_ambient, peak: float):
     """The ambient with its hottest value moved to ``peak`` [K], shape kept."""
     if isinstance(t_ambient, tuple | list):
@@ -223,8 +249,8 @@ class ShipperPanel(widgets.VBox):
         sys_ = self.system
         self.f_duration = UnitField("Target hold", "time", "target hold time", s.duration,
                                     lambda v: self._apply(duration=v), sys_, "hw-shipper-duration")
-        self.f_ambient = UnitField("Hottest ambient", "temperature", "hottest ambient", _peak(s.t_ambient),
-                                   lambda v: self._apply(t_ambient=_shift_to_peak(self.study.t_ambient, v)),
+        self.f_ambient = UnitField("Hottest ambient", "temperature", "hottest ambient", _study_peak(s),
+                                   lambda v: self._apply(**_peak_changes(self._wanted[0], v)),
                                    sys_, "hw-shipper-ambient")
         self.f_coolant = UnitField("Coolant (chart)", "mass", "coolant mass", self.coolant_mass,
                                    self._set_coolant_mass, sys_, "hw-shipper-coolant")
@@ -270,16 +296,50 @@ class ShipperPanel(widgets.VBox):
                                       text=s.names, marker=dict(size=9, color="#212529", symbol="circle-open")))
         self.fig_cost.add_traces(cost_traces)
         self._n = n
+        # the temperature trace of the chosen design (and any others ticked), every profile
+        self.fig_trace = go.Figure(layout=_base_layout("Temperature trace", 870, 560, showlegend=True))
+        self.view_trace = PlotView(self.fig_trace)
+        self.view_trace.add_class("hw-shipper-chart-trace")
+        self.trace_pick = widgets.Dropdown(options=list(s.names), value=s.names[0], description="Trace of",
+                                           style={"description_width": "118px"}, layout=w(width="330px"))
+        self.trace_pick.add_class("hw-shipper-trace-pick")
+        self.trace_also = widgets.SelectMultiple(options=list(s.names), value=(), rows=min(4, n),
+                                                 description="Also show", style={"description_width": "118px"},
+                                                 layout=w(width="330px"))
+        self.trace_also.add_class("hw-shipper-trace-also")
+        self.f_profile = widgets.Text(value="", placeholder="route.csv", description="Profile file",
+                                      style={"description_width": "118px"}, layout=w(width="330px"))
+        self.f_profile.add_class("hw-shipper-profile-file")
+        self.f_profile_name = widgets.Text(value="logger", description="Profile name",
+                                           style={"description_width": "118px"}, layout=w(width="330px"))
+        self.b_profile = widgets.Button(description="Load profile", layout=w(width="150px"))
+        self.b_profile.add_class("hw-shipper-profile-load")
+        self.profile_msg = widgets.HTML("")
+        self.profile_msg.add_class("hw-shipper-profile-msg")
+        self.profile_list = widgets.HTML("")
+        self.profile_list.add_class("hw-shipper-profiles")
+        self.trace_cautions = widgets.HTML("")
+        self.profile_table = widgets.HTML("")
+        self.profile_table.add_class("hw-table")
+        self.profile_table.add_class("hw-shipper-profile-table")
         self.table = widgets.HTML("")
         self.table.add_class("hw-table")
         self.table.add_class("hw-shipper-table")
         self._children = panel_children(
             self.header, self.system_toggle, self.cautions, self.status,
             [section("Conditions"), self.f_duration.box, self.f_ambient.box, self.f_coolant.box,
-             self.f_rate.box, section("Insulation thickness"), self.slider, hint, self.runner.box],
+             self.f_rate.box, section("Ambient profiles"), self.profile_list, self.f_profile,
+             self.f_profile_name, self.b_profile, self.profile_msg,
+             section("Insulation thickness"), self.slider, hint, self.runner.box,
+             section("Trace"), self.trace_pick, self.trace_also],
             "hw-shipper-inputs", [self.view_hold, self.view_cost], "Results per build-up", self.table)
+        self._children = [*self._children, self.view_trace, self.trace_cautions,
+                          section("Per ambient profile, at the current thickness"), self.profile_table]
         self.system_toggle.observe(self._toggled, "value")
         self.slider.observe(self._slid, "value")
+        self.trace_pick.observe(self._trace_changed, "value")
+        self.trace_also.observe(self._trace_changed, "value")
+        self.b_profile.on_click(lambda _b: self.load_profile(self.f_profile.value, self.f_profile_name.value))
 
     def _toggled(self, change) -> None:
         if not self._silent:
@@ -351,7 +411,7 @@ class ShipperPanel(widgets.VBox):
         """Write the inputs of the shown result into the fields."""
         s = self.study
         self.f_duration.set_value(s.duration)
-        self.f_ambient.set_value(_peak(s.t_ambient))
+        self.f_ambient.set_value(_study_peak(s))
         self.f_coolant.set_value(self.coolant_mass)
         self.f_rate.set_value(s.rate_per_kg)
 
@@ -368,8 +428,10 @@ class ShipperPanel(widgets.VBox):
         with self._draw_lock:
             self.thickness = thickness
             self._draw_marks()
+            self._draw_trace()
             self.resync()
             self._draw_table()
+            self._draw_profiles()
 
     def set_system(self, system: str) -> None:
         """Show every value in ``system`` ("SI" or "US"): fields, slider, axes, table."""
@@ -452,6 +514,8 @@ class ShipperPanel(widgets.VBox):
                 f"Hold time with {units.format_quantity(self.coolant_mass, 'mass', sys_)} of coolant")
         self._draw_marks()
         self._draw_table()
+        self._draw_profiles()
+        self._draw_trace()
         self.cautions.value = cautions_html(SHIPPER_PANEL_CAUTIONS, self.results.cautions)
         show_message(self.status, "")
 
@@ -503,7 +567,83 @@ class ShipperPanel(widgets.VBox):
 
     # ------------------------------------------------------------ display
     def resync(self) -> ShipperPanel:
-        """Send both charts' changes to the browser (a view opened later asks for the whole chart)."""
+        """Send the charts' changes to the browser (a view opened later asks for the whole chart)."""
         self.view_hold.push()
         self.view_cost.push()
+        self.view_trace.push()
         return self
+
+    # ------------------------------------------------------------- trace
+    def trace_designs(self) -> list[tuple[str, float]]:
+        """The designs of the trace: the picked one first, then those ticked, at the current thickness."""
+        names = [self.trace_pick.value, *[n for n in self.trace_also.value if n != self.trace_pick.value]]
+        return [(n, float(self.thickness)) for n in names if n in self.study.names]
+
+    def _trace_changed(self, change) -> None:
+        if self._silent:
+            return
+        guard(self.status, self._redraw_trace)
+
+    def _redraw_trace(self) -> None:
+        with self._draw_lock:
+            self._draw_trace()
+            self.view_trace.push()
+
+    def _draw_trace(self) -> None:
+        designs = self.trace_designs()
+        if not designs:
+            return
+        self.trace = self.study.trace(designs)
+        update_shipper_trace(self.fig_trace, self.trace, system=self.system,
+                             title=f"Temperature trace at {units.format_quantity(self.thickness, 'thickness', self.system)}"
+                                   " (calculated)", chosen=designs[0])
+        self.trace_cautions.value = cautions_html(SHIPPER_PANEL_CAUTIONS, self.trace.attrs["cautions"])
+
+    def _draw_profiles(self) -> None:
+        """The named profiles (list) and hold / end / pass per profile at the current thickness (table)."""
+        sys_, th = self.system, self.thickness
+        items = []
+        for name, prof in self.study.profiles.items():
+            times, temps = ambient_profile(prof)
+            items.append(f"<li><b>{html.escape(name)}</b>: {len(temps)} step(s) over "
+                         f"{units.format_quantity(float(times[-1]), 'time', sys_)}, "
+                         f"{units.format_quantity(float(temps.min()), 'temperature', sys_)} to "
+                         f"{units.format_quantity(float(temps.max()), 'temperature', sys_)}</li>")
+        self.profile_list.value = f'<ul style="margin:2px 0 2px 18px;padding:0">{"".join(items)}</ul>'
+        bp = self.results.by_profile
+        if bp is None:
+            self.profile_table.value = ""
+            return
+        now = bp[np.isclose(bp["thickness"], th)]
+        head = "".join(header_cell(t, k, sys_) for t, k in (
+            ("Build-up", None), ("Profile", None), ("Hold (simulated)", "time"), ("End of hold", None),
+            ("Holds the target", "flag")))
+        rows = []
+        for _, r in now.iterrows():
+            reason = str(r["end_reason"])
+            bad = not bool(r["meets_target"])
+            why = f'<td class="hw-bad"><b>{html.escape(reason)}</b></td>' if bad else f"<td>{html.escape(reason)}</td>"
+            rows.append("<tr>" + cell(r["candidate"], None, sys_) + cell(r["profile"], None, sys_)
+                        + cell(r["hold_time_simulated"], "time", sys_) + why + flag_cell(not bad) + "</tr>")
+        self.profile_table.value = (f"<table><thead><tr>{head}</tr></thead><tbody>{''.join(rows)}</tbody></table>"
+                                    '<div class="hw-hint">A design holds only if it holds under every profile. '
+                                    "Payload too cold (freezing) and coolant spent end a hold alike.</div>")
+
+    def load_profile(self, path: str, name: str = "logger") -> str:
+        """Load a logger CSV (:func:`workbench.load_ambient_profile`) as the named profile and recompute.
+
+        Returns the message shown ("" when loaded); a bad file shows its file:line:column message.
+        """
+        from workbench.logger import load_ambient_profile
+
+        try:
+            profile = load_ambient_profile(str(path).strip())
+            changes = _with_profile(self._wanted[0], name, profile)
+            new = dataclasses.replace(self._wanted[0], **changes)
+        except ValueError as exc:
+            show_message(self.profile_msg, str(exc))
+            return str(exc)
+        show_message(self.profile_msg, f"Loaded {path} as profile {name.strip()!r} "
+                     f"({profile[0].size} readings over {profile[0][-1] / 3600:.1f} h).", ok=True)
+        self._recompute(new, self._wanted[1], full=True)
+        return ""

@@ -39,11 +39,11 @@ _COLUMNS = (
     ("flux_now", "Heat flux at current thickness", "heat_flux", ""),
     ("mass_per_area", "Mass per area", "mass_per_area", ""),
     ("cost_per_area", "Cost per area (demo)", "cost_per_area", ""),
-    ("conductivity", "k effective", "conductivity", ""),
+    ("conductivity", "Effective conductivity", "conductivity", ""),
     ("t_surface_inside", "Inner surface", "temperature", ""),
     ("t_surface_outside", "Outer surface", "temperature", ""),
     ("within_service_limits", "Service limits", "flag", ""),
-    ("conductivity_source", "k source", "source", "hw-l hw-src"),
+    ("conductivity_source", "Conductivity source", "source", "hw-l hw-src"),
 )
 
 
