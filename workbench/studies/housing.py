@@ -376,24 +376,27 @@ class HousingStudy:
         return [c.label for c in self.candidates]
 
     def _arrays(self) -> dict[str, np.ndarray]:
+        """Per-candidate properties from the tables (one vectorised lookup per table)."""
         m, f = self.materials, self.finishes
-        out = {"t": [], "k": [], "rho": [], "cp": [], "eps": [], "cost_v": [], "coated": []}
-        for c in self.candidates:
-            row = m.loc[c.material]
-            out["t"].append(c.thickness)
-            out["k"].append(row["conductivity"])
-            out["rho"].append(row["density"])
-            out["cp"].append(row["specific_heat"])
-            out["cost_v"].append(row["cost_per_volume"])
-            if c.finish is None:
-                out["eps"].append(row["emissivity"])
-                # an anodised or painted material row counts as coated, as its finish would
-                out["coated"].append(finish_text_is_coating(row.get("emissivity_finish")))
-            else:
-                out["eps"].append(f.loc[c.finish, "emissivity"])
-                out["coated"].append(bool(f.loc[c.finish, "coated"]))
+        mats = [c.material for c in self.candidates]
+        rows = m.loc[mats, ["conductivity", "density", "specific_heat", "cost_per_volume",
+                            "emissivity", "emissivity_finish"]]
+        eps = rows["emissivity"].to_numpy(float).copy()
+        # an anodised or painted material row counts as coated, as its finish would
+        coated = np.array([finish_text_is_coating(x) for x in rows["emissivity_finish"]], bool)
+        with_finish = [i for i, c in enumerate(self.candidates) if c.finish is not None]
+        if with_finish:
+            fin = f.loc[[self.candidates[i].finish for i in with_finish], ["emissivity", "coated"]]
+            eps[with_finish] = fin["emissivity"].to_numpy(float)
+            coated[with_finish] = fin["coated"].to_numpy(bool)
         return {
-            key: np.array(v, dtype=float if key != "coated" else bool) for key, v in out.items()
+            "t": np.array([c.thickness for c in self.candidates], float),
+            "k": rows["conductivity"].to_numpy(float),
+            "rho": rows["density"].to_numpy(float),
+            "cp": rows["specific_heat"].to_numpy(float),
+            "eps": eps,
+            "cost_v": rows["cost_per_volume"].to_numpy(float),
+            "coated": coated,
         }
 
     def _solve(self, emissivity=None, power=None):

@@ -159,12 +159,16 @@ class HousingPanel(widgets.VBox):
         self.add_class("hw-housing")
 
     # --------------------------------------------------------------- compute
-    def _compute(self, study: HousingStudy):
+    def _compute(self, study: HousingStudy, early=None):
+        """Results, emissivity sweep and warm-up of ``study``; ``early(results)`` runs as soon
+        as the results are known (before the sweeps), so the chart beside the slider can move."""
         t0 = time.perf_counter()
         with warnings.catch_warnings(record=True) as caught:
             warnings.simplefilter("always")
             w = study.warm_up()  # once, for the table's time to the limit and for the chart
             res = study.results(warm=w)
+        if early is not None:
+            early(res)
         t1 = time.perf_counter()
         eps = study.emissivity_sweep(self.emissivities)
         t2 = time.perf_counter()
@@ -310,9 +314,34 @@ class HousingPanel(widgets.VBox):
             self._silent = False
         self._redraw()
 
+    def _show_power_now(self, study: HousingStudy, res) -> None:
+        """Move the power chart's current-power markers and line to ``study``'s power, and send it."""
+        sys_ = self.system
+        p_now = float(conv(study.power, "power", sys_))
+        k = self._n + len(self.classes)
+        with self.fig_pow.batch_update():
+            c = self.fig_pow.data[k]
+            c.x = np.full(len(res), p_now)
+            c.y = conv(res["t_hot_spot"], "temperature", sys_)
+            self.fig_pow.layout.shapes[0].x0 = p_now
+            self.fig_pow.layout.shapes[0].x1 = p_now
+            self.fig_pow.layout.title.text = (
+                f"Hot spot vs power — current {units.format_quantity(study.power, 'power', sys_)}")
+        self.view_pow.push()
+
     def _set_power(self, power: float) -> None:
         new = with_power(self.study, power, self.share)
-        res, eps = self._compute(new)
+        early = None
+        if power <= self.power_max:  # same axis: the power chart can move before the sweeps
+            def early(res):
+                self._show_power_now(new, res)
+        try:
+            res, eps = self._compute(new, early)
+        except Exception:
+            if early is not None:  # put the power chart back to what the rest still shows
+                self._redraw_figures()
+                self.resync()
+            raise
         if power > self.power_max:  # widen the power axis
             old_max = self.power_max
             self.power_max = 2.0 * power
