@@ -428,6 +428,9 @@ class ShipperPanel(widgets.VBox):
         with self._draw_lock:
             self.thickness = thickness
             self._draw_marks()
+            # the markers beside the slider move first; the trace (a simulation) follows
+            self.view_hold.push()
+            self.view_cost.push()
             self._draw_trace()
             self.resync()
             self._draw_table()
