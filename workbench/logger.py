@@ -29,7 +29,6 @@ each reading holds until the next one, the last one for ever.
 
 from __future__ import annotations
 
-import csv
 import math
 import re
 from datetime import datetime
@@ -38,6 +37,7 @@ from pathlib import Path
 import numpy as np
 
 from workbench import transient
+from workbench._csvtext import CsvSyntaxError, csv_rows
 
 __all__ = ["load_ambient_profile", "DEFAULT_MAX_GAP", "TIME_COLUMNS", "TEMPERATURE_COLUMN"]
 
@@ -64,25 +64,10 @@ def _read_rows(path: Path) -> tuple[str, int, list[str], list[tuple[int, list[st
         raise ValueError(f"{name}:0:0: file not found") from None
     except (OSError, UnicodeDecodeError) as exc:
         raise ValueError(f"{name}:0:0: cannot read the file as UTF-8 text ({exc})") from None
-    reader = csv.reader(text.splitlines(keepends=True))
-    header: list[str] | None = None
-    header_line = 0
-    rows: list[tuple[int, list[str]]] = []
-    start = 1
     try:
-        for record in reader:
-            line = start
-            start = reader.line_num + 1
-            if not record or all(not c.strip() for c in record):
-                continue
-            if record[0].lstrip().startswith("#"):
-                continue
-            if header is None:
-                header, header_line = [c.strip() for c in record], line
-                continue
-            rows.append((line, [c.strip() for c in record]))
-    except csv.Error as exc:
-        raise ValueError(f"{name}:{start}:1: malformed CSV ({exc})") from None
+        header, header_line, rows = csv_rows(text)
+    except CsvSyntaxError as exc:
+        raise ValueError(f"{name}:{exc.line}:1: {exc}") from None
     if header is None:
         raise ValueError(
             f"{name}:1:1: empty file: expected a header such as 'elapsed [h],temperature [°C]'"

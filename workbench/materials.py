@@ -50,7 +50,6 @@ in a :class:`MaterialsFileError`; nothing is loaded when there is any problem.
 
 from __future__ import annotations
 
-import csv
 import functools
 import math
 import re
@@ -62,6 +61,8 @@ from types import MappingProxyType
 
 import numpy as np
 import pandas as pd
+
+from workbench._csvtext import CsvSyntaxError, csv_rows
 
 __all__ = [
     "FAMILIES",
@@ -404,26 +405,10 @@ def _read_csv(path: Path) -> _Table:
         return _Table(name, [], [], [_problem(name, 0, "-", "file not found")])
     except (OSError, UnicodeDecodeError) as exc:
         return _Table(name, [], [], [_problem(name, 0, "-", f"cannot read file ({exc})")])
-    reader = csv.reader(text.splitlines(keepends=True))
-    header: list[str] | None = None
-    header_line = 1
-    rows: list[tuple[int, list[str]]] = []
-    start = 1
     try:
-        for record in reader:
-            line = start
-            start = reader.line_num + 1
-            if not record or all(not c.strip() for c in record):
-                continue
-            if record[0].lstrip().startswith("#"):
-                continue
-            if header is None:
-                header = [c.strip() for c in record]
-                header_line = line
-                continue
-            rows.append((line, [c.strip() for c in record]))
-    except csv.Error as exc:
-        return _Table(name, [], [], [_problem(name, start, "-", f"malformed CSV ({exc})")])
+        header, header_line, rows = csv_rows(text)
+    except CsvSyntaxError as exc:
+        return _Table(name, [], [], [_problem(name, exc.line, "-", str(exc))])
     if header is None:
         return _Table(name, [], [], [_problem(name, 1, "-", "empty file: no header row")])
     table = _Table(name, header, rows, header_line=header_line)

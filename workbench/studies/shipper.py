@@ -489,6 +489,28 @@ class ShipperStudy:
             cols["cost"].append(np.full(n, float(cost)))
         return {key: np.stack(v, axis=-1) for key, v in cols.items()}
 
+    def _closed_form_hold(self, conductance, mass) -> np.ndarray:
+        """Closed-form hold time [s] under the most demanding named profile (the shortest)."""
+        row = self.coolant_row
+        return np.min(
+            [
+                np.asarray(
+                    transient.hold_time(
+                        conductance,
+                        prof,
+                        mass,
+                        float(row["latent_heat"]),
+                        float(row["t_phase_change"]),
+                        self.payload_heat_capacity,
+                        self.t_payload_start,
+                    ),
+                    float,
+                )
+                for prof in self.profiles.values()
+            ],
+            axis=0,
+        )
+
     def _box(self, lay: dict, coolant_mass: np.ndarray) -> dict:
         """Inner dims, conductance and outer box for coolant masses (n_thk,)."""
         row = self.coolant_row
@@ -598,24 +620,7 @@ class ShipperStudy:
                 ),
                 float,
             )
-            hold_cf = np.min(
-                [
-                    np.asarray(
-                        transient.hold_time(
-                            box["conductance"],
-                            prof,
-                            mass,
-                            float(row["latent_heat"]),
-                            float(row["t_phase_change"]),
-                            self.payload_heat_capacity,
-                            self.t_payload_start,
-                        ),
-                        float,
-                    )
-                    for prof in self.profiles.values()
-                ],
-                axis=0,
-            )
+            hold_cf = self._closed_form_hold(box["conductance"], mass)
             frames.append(
                 pd.DataFrame(
                     {
@@ -757,29 +762,11 @@ class ShipperStudy:
         ``progress``/``cancel`` as in :meth:`sweep`.
         """
         mass = float(positive("coolant_mass", coolant_mass, "kg"))
-        row = self.coolant_row
         frames = []
         for cand in self.candidates:
             lay = self._layers(cand, self.thicknesses)
             box = self._box(lay, np.full(self.thicknesses.size, mass))
-            hold = np.min(
-                [
-                    np.asarray(
-                        transient.hold_time(
-                            box["conductance"],
-                            prof,
-                            mass,
-                            float(row["latent_heat"]),
-                            float(row["t_phase_change"]),
-                            self.payload_heat_capacity,
-                            self.t_payload_start,
-                        ),
-                        float,
-                    )
-                    for prof in self.profiles.values()
-                ],
-                axis=0,
-            )
+            hold = self._closed_form_hold(box["conductance"], mass)
             frames.append(
                 pd.DataFrame(
                     {
