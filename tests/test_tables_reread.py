@@ -14,9 +14,9 @@ rounding (half a unit of the last digit written in the CSV cell). The copies:
 - ``crc-hcp95-inorg-chemicals1.5.2`` / ``crc-hcp95-thermo-chemicals1.5.2``:
   CRC Handbook of Chemistry and Physics (2014), solid densities and Cp of
   the crystal at 298.15 K, as carried by ``chemicals`` 1.5.2.
-- ``coolprop8.0.0-<gas>``: the reference equations of state and conductivity
-  correlations named in tables/sources.csv, evaluated by CoolProp 8.0.0 at
-  283.15 K and 101325 Pa.
+- ``coolprop8.0.0-<gas>`` (air, argon, co2, nitrogen): the reference
+  equations of state and conductivity correlations named in
+  tables/sources.csv, evaluated by CoolProp 8.0.0 at 283.15 K and 101325 Pa.
 
 Each row of ``REREAD`` names the copy's row the material maps to and why it
 is the same material (same material class and density class). The rows are
@@ -54,6 +54,7 @@ COOLPROP = {
     "coolprop8.0.0-air": "Air",
     "coolprop8.0.0-argon": "Argon",
     "coolprop8.0.0-co2": "CO2",
+    "coolprop8.0.0-nitrogen": "Nitrogen",
 }
 REREAD_KEYS = {EN, ASHRAE, CRC_RHO, CRC_CP, *COOLPROP}
 # the copy versions named in the keys; a different installed version must be re-checked
@@ -68,13 +69,19 @@ EN_ROWS = {
         "Plastics, polyamide (nylon)",
         "unfilled polyamide; density 1150 kg/m³ is that of PA6/PA66",
     ),
-    "pa66_gf25": ("Plastics, polyamide 6.6 with 25% glass fibre", "same polymer and filler content"),
+    "pa66_gf25": (
+        "Plastics, polyamide 6.6 with 25% glass fibre",
+        "same polymer and filler content",
+    ),
     "pp": ("Plastics, polypropylene", "same polymer"),
     "pp_gf25": ("Plastics, polypropylene with 25% glass fibre", "same polymer and filler content"),
     "hdpe": ("Plastics, polyethylene / polythene, high density", "same polymer and density class"),
     "ldpe": ("Plastics, polyethylene / polythene, low density", "same polymer and density class"),
     "pmma": ("Plastics, polymethylmethacrylate (PMMA)", "same polymer"),
-    "pvc_rigid": ("Plastics, Polyvinylchloride (PVC)", "rigid PVC (the plasticised grade is a separate row)"),
+    "pvc_rigid": (
+        "Plastics, Polyvinylchloride (PVC)",
+        "rigid PVC (the plasticised grade is a separate row)",
+    ),
     "ptfe": ("Plastics, polytetrafluoroethylene (PTFE)", "same polymer"),
     "pom": (
         "Plastics, polyacetate",
@@ -96,6 +103,122 @@ EN_ROWS = {
     "mdf_800": ("Wood, fibreboard, 800 kg/m^3", "MDF is a fibreboard; same density class"),
     "particleboard_600": ("Wood, particleboard, 600 kg/m^3", "same board and density class"),
     "wool_felt_120": ("Floor covering, underlay, felt", "felt, 120 kg/m³"),
+    # added for issue 17: generic design-value rows (the row IS the copy's group), polymers,
+    # elastomers and sealants, foams, boards, concrete, gypsum, renders, stone and tiles
+    "steel_sheet": (
+        "Metals, steel",
+        "the copy's generic unalloyed steel row; this row is the generic group, not a grade",
+    ),
+    "steel_sheet_galvanised": (
+        "Metals, steel",
+        "same bulk as steel_sheet (generic unalloyed steel); the zinc layer changes only the surface",
+    ),
+    "steel_sheet_painted": (
+        "Metals, steel",
+        "same bulk as steel_sheet (generic unalloyed steel); the coating changes only the surface",
+    ),
+    "stainless_sheet": (
+        "Metals, stainless steel",
+        "the copy's generic stainless steel row; this row is the generic group, not a grade (specific grades: stainless_304, stainless_316)",
+    ),
+    "aluminium_alloy_sheet": (
+        "Metals, aluminium alloys",
+        "the copy's generic aluminium alloy row; this row is the generic group, not a grade",
+    ),
+    "aluminium_alloy_sheet_painted": (
+        "Metals, aluminium alloys",
+        "same bulk as aluminium_alloy_sheet (generic aluminium alloy); the coating changes only the surface",
+    ),
+    "copper_sheet": (
+        "Metals, copper",
+        "the copy's copper row is commercial copper (380 W/(m·K)), as used for sheet and strip",
+    ),
+    "bronze": ("Metals, bronze", "the copy's generic bronze row; this row is the generic group"),
+    "lead_sheet": ("Metals, lead", "rolled lead sheet is nearly pure lead"),
+    "zinc_sheet": (
+        "Metals, zinc",
+        "rolled zinc sheet is zinc with small alloy additions (under 1 %)",
+    ),
+    "pa66": (
+        "Plastics, polyamide (nylon)",
+        "unfilled polyamide; the copy's single nylon row covers PA6 and PA66 (density 1150 kg/m³)",
+    ),
+    "ps": ("Plastics, polystyrene", "solid (unexpanded) polystyrene"),
+    "pur_solid": ("Plastics, polyurethane (PU)", "solid (unfoamed) polyurethane"),
+    "pf_resin": ("Plastics, phenolic resin", "solid phenol-formaldehyde resin"),
+    "up_resin": ("Plastics, polyester resin", "cured unsaturated polyester resin without fibre"),
+    "rubber_nr": ("Rubber, natural", "same elastomer"),
+    "rubber_cr": (
+        "Rubber, neoprene (polychloroprene)",
+        "same elastomer (the copy's label uses a trade name)",
+    ),
+    "rubber_iir": ("Rubber, butyl (isobutene), solid melt", "same elastomer"),
+    "rubber_hard": ("Rubber, hard rubber (ebonite), solid", "same material"),
+    "sealant_polysulfide": ("Rubber, polysulfide", "cured polysulfide elastomer"),
+    "silicone_filled": ("Sealant, silicone, filled", "cured filled silicone elastomer"),
+    "pvc_flexible": (
+        "Sealant, polyvinylchloride (PVC) flexible, with 40% softner",
+        "same plasticised PVC",
+    ),
+    "pur_thermal_break": (
+        "Sealant, urethane / polyurethane (thermal break)",
+        "same material (cast polyurethane in frame thermal breaks)",
+    ),
+    "linoleum": ("Floor covering, Linoleum", "same material"),
+    "bitumen_membrane": ("Bitumen, felt or sheet", "same product class"),
+    "elastomeric_foam_70": (
+        "Sealant, elastomeric foam, flexible",
+        "same product class and density",
+    ),
+    "pe_foam_70": ("Sealant, polyethylene foam", "closed-cell polyethylene foam, 70 kg/m³"),
+    "pur_foam_sealant_70": ("Sealant, polyurethane (PU) foam", "same product class and density"),
+    "plywood_300": ("Wood, plywood 300 kg/m^3", "same board and density class"),
+    "plywood_700": ("Wood, plywood 700 kg/m^3", "same board and density class"),
+    "fibreboard_250": ("Wood, fibreboard, 250 kg/m^3", "fibreboard by density class, 250 kg/m³"),
+    "fibreboard_600": ("Wood, fibreboard, 600 kg/m^3", "fibreboard by density class, 600 kg/m³"),
+    "cork_agglomerated_200": (
+        "Floor covering, underlay, cork",
+        "agglomerated cork sheet, 200 kg/m³",
+    ),
+    "concrete_1800": (
+        "Concrete, medium density 1800 kg/m^3",
+        "concrete by density class, 1800 kg/m³",
+    ),
+    "concrete_2000": (
+        "Concrete, medium density 2000 kg/m^3",
+        "concrete by density class, 2000 kg/m³",
+    ),
+    "concrete_2200": (
+        "Concrete, medium density 2200 kg/m^3",
+        "concrete by density class, 2200 kg/m³",
+    ),
+    "concrete_reinforced_1pc": (
+        "Concrete, reinforced with 1% steel",
+        "same composition (1 % steel by volume)",
+    ),
+    "concrete_reinforced_2pc": (
+        "Concrete, reinforced with 2% steel",
+        "same composition (2 % steel by volume)",
+    ),
+    "gypsum_600": ("Gypsum, 600 kg/m^3", "gypsum by density class, 600 kg/m³"),
+    "gypsum_1200": ("Gypsum, 1200 kg/m^3", "gypsum by density class, 1200 kg/m³"),
+    "gypsum_plaster_1000": (
+        "Plasters and renders, gypsum plastering, 1000 kg/m^3",
+        "gypsum plaster, 1000 kg/m³",
+    ),
+    "render_lime_sand_1600": ("Plasters and renders, lime sand", "lime-sand plaster, 1600 kg/m³"),
+    "render_cement_sand_1600": (
+        "Plasters and renders, cement sand",
+        "cement-sand plaster, 1600 kg/m³",
+    ),
+    "asphalt_2100": ("Asphalt", "same material, 2100 kg/m³"),
+    "marble": ("Stone, marble", "same stone"),
+    "sandstone": ("Stone, sandstone (silica)", "same stone"),
+    "slate": ("Stone, slate", "same stone"),
+    "limestone_soft_1800": ("Stone, limestone, soft", "limestone by hardness class, 1800 kg/m³"),
+    "limestone_hard_2200": ("Stone, limestone, hard", "limestone by hardness class, 2200 kg/m³"),
+    "tile_clay": ("Tiles, clay", "fired clay tiles, 2000 kg/m³"),
+    "tile_concrete": ("Tiles, concrete", "concrete tiles, 2100 kg/m³"),
 }
 # ASHRAE rows: values at 24 °C mean temperature (from memory; the copy gives none).
 ASHRAE_ROWS = {
@@ -108,6 +231,74 @@ ASHRAE_ROWS = {
         "Concrete, Expanded shale, clay, or slate; expanded slags; cinders; pumice; scoria; 1280 kg/m^3",
         "lightweight aggregate concrete, 1280 kg/m³",
     ),
+    # added for issue 17: insulation by density class, boards, masonry and timber species
+    "xps_32": ("Expanded polystyrene, extruded", "extruded polystyrene board, 32.5 kg/m³"),
+    "pir_30": ("Polyisocyanurate, aged, unfaced", "unfaced polyisocyanurate, aged, 30 kg/m³"),
+    "pir_65_faced": (
+        "Polyisocyanurate, aged, with facers",
+        "faced polyisocyanurate, aged, 65 kg/m³",
+    ),
+    "phenolic_65": ("Phenolic foam board with facers, aged", "faced phenolic foam, aged, 65 kg/m³"),
+    "pur_spray_40": (
+        "Spray-applied Polyurethane foam, 40 kg/m^3",
+        "spray-applied polyurethane foam, 40 kg/m³",
+    ),
+    "expanded_rubber_70": ("Expanded rubber", "rigid expanded rubber, 70 kg/m³"),
+    "cellular_glass_130": ("Cellular glass", "cellular glass, 130 kg/m³"),
+    "mineral_wool_batt_30": ("Mineral fiber", "mineral fibre batt, 30 kg/m³"),
+    "glass_wool_10": ("Glass-fiber batts, 50 mm", "glass fibre batt, 10.5 kg/m³"),
+    "mineral_wool_felted_32": ("Mineral wool, felted, 32 kg/m^3", "felted mineral wool, 32 kg/m³"),
+    "mineral_wool_felted_100": (
+        "Mineral wool, felted, 100 kg/m^3",
+        "felted mineral wool, 97.5 kg/m³",
+    ),
+    "slag_wool_120": ("Slag wool, 120 kg/m^3", "slag wool, 120 kg/m³"),
+    "slag_wool_255": ("Slag wool, 255 kg/m^3", "slag wool, 255 kg/m³"),
+    "glass_fibre_board_160": ("Glass fiber board", "glass fibre board, 160 kg/m³"),
+    "mineral_fibreboard_160": (
+        "Mineral fiberboard, wet felted",
+        "wet-felted mineral fibreboard, 160 kg/m³",
+    ),
+    "wood_wool_cement_415": (
+        "Cement fiber slabs, shredded wood, with Portland cement binder",
+        "wood-wool slab with Portland cement binder, 415 kg/m³",
+    ),
+    "wood_wool_magnesia_350": (
+        "Cement fiber slabs, shredded wood, with magnesia oxysulfide binder",
+        "wood-wool slab with magnesia binder, 350 kg/m³",
+    ),
+    "hardboard_880": (
+        "Hardboard, high density, service-tempered grade and service grade",
+        "high-density hardboard, 880 kg/m³",
+    ),
+    "paperboard_laminated_480": (
+        "Vegetable fiber board, Laminated paperboard",
+        "laminated paperboard, 480 kg/m³",
+    ),
+    "cement_board_1150": ("Board, Cement", "cement board, 1150 kg/m³"),
+    "fibre_cement_1000": ("Board, Fiber/cement, 1000 kg/m^3", "fibre-cement board, 1000 kg/m³"),
+    "fibre_cement_1400": ("Board, Fiber/cement, 1400 kg/m^3", "fibre-cement board, 1400 kg/m³"),
+    "brick_1280": ("Brick, fired clay, 1280 kg/m^3", "fired clay brick, 1280 kg/m³"),
+    "brick_1600": ("Brick, fired clay, 1600 kg/m^3", "fired clay brick, 1600 kg/m³"),
+    "brick_2240": ("Brick, fired clay, 2240 kg/m^3", "fired clay brick, 2240 kg/m³"),
+    "concrete_gravel_2240": (
+        "Concrete, Sand and gravel or stone aggregate concretes, 2240 kg/m^3",
+        "sand-and-gravel aggregate concrete, 2240 kg/m³",
+    ),
+    "concrete_light_1600": (
+        "Concrete, Expanded shale, clay, or slate; expanded slags; cinders; pumice; scoria; 1600 kg/m^3",
+        "lightweight aggregate concrete, 1600 kg/m³",
+    ),
+    "concrete_insulating_640": (
+        "Concrete, Perlite, vermiculite, and polystyrene beads, 640 kg/m^3",
+        "lightweight insulating concrete, 640 kg/m³",
+    ),
+    "aac_615": ("Concrete, Aerated concrete (oven-dried)", "aerated concrete, oven dry, 615 kg/m³"),
+    "oak_705": ("Oak", "oak, 705 kg/m³"),
+    "birch_703": ("Birch", "birch, 702.5 kg/m³"),
+    "douglas_fir_558": ("Douglas fir/larch", "Douglas fir or larch, 557.5 kg/m³"),
+    "spruce_400": ("Spruce", "spruce, 400 kg/m³"),
+    "cedar_red_350": ("Western red cedar", "western red cedar, 350 kg/m³"),
 }
 # CRC rows via chemicals: CAS of the pure solid (pure metals; alpha-alumina for cp only,
 # because the copy's solid density row for alumina is the gamma phase)
@@ -117,7 +308,12 @@ CRC_ROWS = {
     "titanium_pure": ("7440-32-6", "unalloyed titanium"),
     "alumina_dense": ("1344-28-1", "alpha-Al2O3 (Cp of the crystal); sintered alumina is alpha"),
 }
-GAS_ROWS = {"air": "coolprop8.0.0-air", "argon": "coolprop8.0.0-argon", "co2": "coolprop8.0.0-co2"}
+GAS_ROWS = {
+    "air": "coolprop8.0.0-air",
+    "argon": "coolprop8.0.0-argon",
+    "co2": "coolprop8.0.0-co2",
+    "nitrogen": "coolprop8.0.0-nitrogen",
+}
 
 
 def _en(row: str, column: str) -> float:
@@ -176,15 +372,19 @@ def _half_unit(cell: str) -> float:
 def _agrees(material_id: str, column: str) -> bool:
     cell = BY_ID[material_id][column]
     ref = _copy_value(material_id, column)
-    return ref is not None and math.isfinite(ref) and abs(float(cell) - ref) <= _half_unit(cell) * (1 + 1e-9)
+    return (
+        ref is not None
+        and math.isfinite(ref)
+        and abs(float(cell) - ref) <= _half_unit(cell) * (1 + 1e-9)
+    )
 
 
-REREAD_CELLS = [
-    (r["id"], c) for r in MATERIALS for c in COLUMNS if r[f"{c}_source"] in REREAD_KEYS
-]
+REREAD_CELLS = [(r["id"], c) for r in MATERIALS for c in COLUMNS if r[f"{c}_source"] in REREAD_KEYS]
 
 
-@pytest.mark.parametrize("material_id, column", REREAD_CELLS, ids=[f"{i}-{c}" for i, c in REREAD_CELLS])
+@pytest.mark.parametrize(
+    "material_id, column", REREAD_CELLS, ids=[f"{i}-{c}" for i, c in REREAD_CELLS]
+)
 def test_value_matches_its_copy(material_id, column):
     cell = BY_ID[material_id][column]
     ref = _copy_value(material_id, column)
@@ -205,6 +405,24 @@ def test_every_mapped_row_cites_its_copy():
         for material_id in rows:
             cited = {BY_ID[material_id][f"{c}_source"] for c in COLUMNS}
             assert cited & keys, material_id
+
+
+# the copy's rows for groups of alloys: only rows that are themselves the generic
+# group (named "generic") may map to them, never a specific grade or temper
+GROUP_ROWS = {
+    "Metals, aluminium alloys",
+    "Metals, steel",
+    "Metals, stainless steel",
+    "Metals, bronze",
+    "Metals, brass",
+}
+
+
+def test_group_rows_only_for_generic_rows():
+    mapped = [(i, row) for i, (row, _) in EN_ROWS.items() if row in GROUP_ROWS]
+    assert len(mapped) >= 5
+    for material_id, _row in mapped:
+        assert "generic" in BY_ID[material_id]["name"].lower(), material_id
 
 
 def test_copy_rows_exist_exactly():
@@ -250,19 +468,25 @@ def test_recalled_values_are_not_labelled_reread():
     for r in MATERIALS:
         for c in COLUMNS:
             key = r[f"{c}_source"]
-            assert key in REREAD_KEYS or key.endswith("-mem") or key in (
-                "common-practice",
-                "from-memory",
+            assert (
+                key in REREAD_KEYS
+                or key.endswith("-mem")
+                or key
+                in (
+                    "common-practice",
+                    "from-memory",
+                )
             ), (r["id"], c, key)
 
 
 # Share of k, rho and cp values re-read from a copy with a passing check.
-# Issue 17 sets 60 % as the goal; the copies installed here (ht, CoolProp,
-# chemicals) carry no data for the filled and engineering polymer grades,
-# most insulation products by density, vacuum panels, aerogel, corrugated
-# board, or specific alloys, so the share reached is lower. The floor below
-# guards what has been reached (the goal stays open in the issue).
-SHARE_FLOOR = 0.43
+# Issue 17 set 60 % as the goal; 373 of 576 values (64.8 %) are re-read. The
+# rest has no row in the installed copies (ht, CoolProp, chemicals): specific
+# alloys and tempers, engineering and filled polymer grades, insulation
+# products by density and ageing outside the copies' density classes, vacuum
+# panels, aerogel, microporous boards, corrugated board and technical
+# ceramics. The floor guards what has been reached (rounded down).
+SHARE_FLOOR = 0.64
 
 
 def _share() -> tuple[int, int]:
