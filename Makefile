@@ -7,7 +7,7 @@ PORT   ?= 8866
 # JupyterLab refuses to start as root unless told; these machines run as root.
 ROOT_OK := $(if $(filter 0,$(shell id -u)),--allow-root,)
 
-.PHONY: lab app test test-latest lock bench lint clean notebooks meeting meeting-password
+.PHONY: lab app docs test test-latest lock bench lint clean notebooks meeting meeting-password
 
 LOCK   := requirements/lock-py311.txt
 UV_VERSION := 0.13.9
@@ -26,9 +26,13 @@ $(STAMP): pyproject.toml $(LOCK)
 lab: $(STAMP)
 	$(VENV)/bin/jupyter lab $(ROOT_OK) notebooks/quick_start.ipynb
 
-## make app: serve the wall-comparison notebook as a web app on 127.0.0.1 for a meeting
+## make app: serve the web app on 127.0.0.1 (PORT=): a first page offering the three jobs (wall, shipper, housing)
 app: $(STAMP)
-	$(VENV)/bin/voila notebooks/wall_comparison.ipynb --no-browser --port $(PORT) --Voila.ip=127.0.0.1
+	$(VENV)/bin/voila notebooks/app.ipynb --no-browser --port $(PORT) --Voila.ip=127.0.0.1
+
+## make docs: regenerate docs/scenario-keys.md (every scenario-file key of every study kind) from the declarations
+docs: $(STAMP)
+	$(PY) -c "from workbench.scenario import scenario_keys_text as k; open('docs/scenario-keys.md', 'w', encoding='utf-8').write(k(None, 'markdown'))"
 
 ## make meeting: the live review meeting: JupyterLab with real-time collaboration on
 ## notebooks/review_meeting.ipynb; 127.0.0.1 unless HOST= says otherwise, PORT= too; always a

@@ -406,3 +406,130 @@ def test_housing_warm_up_chart_in_fahrenheit(house):
     house.set_system("US")
     assert "[°F]" in house.fig_warm.layout.yaxis.title.text
     assert "°F" in house.fig_warm.data[0].hovertemplate
+
+
+# ------------------------------------------------------------------- the app's first page (JobChooser)
+# No physics here: the chooser builds panels. What is checked is that each job opens the panel of
+# that job on the same study its notebook/file describes, and that a bad file becomes a message
+# naming file:line:column, never an exception. The one physical value read back (48 h = 172 800 s)
+# uses scipy.constants.hour (NIST SP 811, 2008, Appendix B.8).
+import re  # noqa: E402
+from pathlib import Path  # noqa: E402
+
+from workbench.scenario import load_scenario, study_from_scenario  # noqa: E402
+from workbench.widgets.app import Workbench  # noqa: E402
+from workbench.widgets.jobs import JOBS, JobChooser  # noqa: E402
+
+EXAMPLES = Path(__file__).resolve().parents[1] / "examples"
+_PANELS = {"wall": Workbench, "shipper": ShipperPanel, "housing": HousingPanel}
+
+
+def _chooser():
+    return JobChooser(background=False, autosave_delay=None)
+
+
+def _chart_lengths(panel):
+    """Number of y values of each trace of each chart of a panel (all charts it shows)."""
+    if isinstance(panel, Workbench):
+        figs = [c.fig for c in panel._charts()]
+    elif isinstance(panel, ShipperPanel):
+        figs = [panel.fig_hold, panel.fig_cost]
+    else:
+        figs = [panel.fig_eps, panel.fig_pow, panel.fig_warm]
+    return [[len(t.y) if t.y is not None else 0 for t in fig.data] for fig in figs]
+
+
+def test_job_chooser_first_page_offers_the_three_jobs():
+    j = _chooser()
+    assert j.children == (j.home_page,) and j.current is None
+    assert [job.key for job in JOBS] == ["wall", "shipper", "housing"]
+    cards = j.cards.children
+    assert len(cards) == 3
+    for job, card in zip(JOBS, cards, strict=True):
+        assert f"hw-job-{job.key}" in card._dom_classes
+        text = " ".join(c.value for c in card.children if hasattr(c, "value"))
+        assert job.name in text and "invented" in text  # demo data labelled as such
+    with pytest.raises(ValueError, match="job: unknown 'roof'"):
+        j.open_job("roof")
+
+
+@pytest.mark.filterwarnings("ignore::workbench._checks.ValidityWarning")
+@pytest.mark.parametrize("key", ["wall", "shipper", "housing"])
+def test_job_chooser_button_opens_the_demo_panel_and_back_returns(key):
+    j = _chooser()
+    j.open_buttons[key].click()
+    assert j.current == key, j.message.value
+    panel = j.panels[key]
+    assert isinstance(panel, _PANELS[key])
+    assert j.children == (j.bar, panel)
+    assert "DEMO — invented numbers" in panel.header.value
+    lengths = _chart_lengths(panel)
+    assert all(any(n > 1 for n in fig) for fig in lengths), lengths  # every chart holds curves
+    j.back_button.click()
+    assert j.current is None and j.children == (j.home_page,)
+    assert j.open_buttons[key].description == "Return to it"
+    j.open_buttons[key].click()
+    assert j.panels[key] is panel  # the panel keeps its state between visits
+
+
+@pytest.mark.filterwarnings("ignore::workbench._checks.ValidityWarning")
+@pytest.mark.parametrize("name", ["wall.toml", "shipper.toml", "housing.toml"])
+def test_job_chooser_opens_a_scenario_file_in_the_panel_of_its_kind(name):
+    path = EXAMPLES / name
+    scen = load_scenario(path)
+    expected = study_from_scenario(scen)
+    j = _chooser()
+    j.path.value = str(path)
+    j.open_file_button.click()
+    assert j.current == scen.kind, j.message.value
+    panel = j.panels[scen.kind]
+    assert isinstance(panel, _PANELS[scen.kind])
+    assert panel.title == scen.title and scen.title in panel.header.value
+    assert list(panel.study.names) == list(expected.names)
+    if scen.kind == "wall":  # the file's decision comes along, as with the panel's own Open button
+        assert panel.decision_form.values()["chosen"] == scen.decision.chosen
+    if scen.kind == "shipper":
+        assert panel.study.duration == pytest.approx(48 * constants.hour)  # duration = "48 h" in the file
+    assert "Opened" in j.message.value
+
+
+def _bad_copy(tmp_path, name, old, new):
+    """A copy of an example file with one line changed, and that line's number and column (1-based)."""
+    text = (EXAMPLES / name).read_text(encoding="utf-8")
+    assert text.count(old) == 1
+    bad = tmp_path / f"bad_{name}"
+    bad.write_text(text.replace(old, new), encoding="utf-8")
+    lines = bad.read_text(encoding="utf-8").splitlines()
+    line = next(i for i, t in enumerate(lines, 1) if new in t)
+    return bad, line, lines[line - 1].index(new.split("=")[0].strip()) + 1
+
+
+def test_job_chooser_bad_file_shows_file_line_column_and_stays(tmp_path):
+    j = _chooser()
+    bad, line, col = _bad_copy(tmp_path, "housing.toml", 't_ambient = "25 °C"', 't_ambient = "25 kg"')
+    j.path.value = str(bad)
+    j.open_file_button.click()  # must not raise
+    msg = j.message.value
+    assert 'class="hw-msg"' in msg and f"{bad}:{line}:{col}:" in msg, msg
+    assert "t_ambient" in msg and "°C" in msg and "Traceback" not in msg  # names the key and the expected unit
+    assert j.current is None and j.children == (j.home_page,) and not j.panels
+    assert not any(b.disabled for b in j.open_buttons.values())  # the page stays usable
+
+
+def test_job_chooser_broken_toml_missing_file_and_folder_give_messages(tmp_path):
+    j = _chooser()
+    broken = tmp_path / "broken.toml"
+    broken.write_text('format = "heatpath-scenario"\nversion = 1\nkind = "wall\n', encoding="utf-8")
+    j.open_file(str(EXAMPLES / "housing.toml"))  # a panel is open; a bad file must leave it alone
+    shown = j.panels["housing"]
+    for path, words in ((broken, [f"{broken}:3"]), (tmp_path / "missing.toml", ["missing.toml", "not found"]),
+                        (tmp_path, ["is a folder"]), ("  ", ["enter the path"])):
+        j.show_home()
+        j.path.value = str(path)
+        j.open_file_button.click()
+        msg = j.message.value
+        assert 'class="hw-msg"' in msg and "Traceback" not in msg, msg
+        assert all(w in msg for w in words), (words, msg)
+        assert j.current is None and j.panels["housing"] is shown
+    with pytest.raises(ValueError, match=re.escape(f"{broken}:3")):
+        j.open_file(broken)  # called from Python it raises the same ValueError

@@ -263,9 +263,9 @@ def test_engineering_rounding():
 def test_housing_report_shows_the_warm_up(evaluations, pages):
     ev = evaluations["housing"]
     page = pages["housing"]
-    from workbench.report import _housing_charts
+    from workbench.studies.housing.charts import charts as housing_charts
 
-    figs = _housing_charts(ev)
+    figs = housing_charts(ev)
     warm = [f for f in figs if "use session" in (f.layout.title.text or "")]
     assert len(warm) == 1
     fig = warm[0]

@@ -7,6 +7,8 @@ instead of propagating NaN through a sweep.
 
 from __future__ import annotations
 
+import math
+
 import numpy as np
 
 __all__ = [
@@ -26,6 +28,7 @@ __all__ = [
     "scalar",
     "integer",
     "finite_result",
+    "finite_product",
 ]
 
 #: Highest absolute temperature the numeric core accepts. [K]
@@ -199,6 +202,60 @@ def finite_result(what: str, result, *names: str):
                 f"and units of {', '.join(names)}"
             )
     return result
+
+
+#: Results up to this many elements are checked element by element; above it,
+#: :func:`finite_product` bounds them from the (smaller) factors first.
+_CHECK_EACH_UP_TO = 4096
+
+
+def _max_abs(arr: np.ndarray) -> float:
+    return float(np.max(np.abs(arr))) if arr.size else 0.0
+
+
+def _product_bound(a: np.ndarray, b: np.ndarray, divide: bool) -> float:
+    """Upper bound of ``|a * b|`` (``|a / b|``) over all elements; ``inf`` if it overflows.
+
+    Rounding is monotone, so every rounded element is at most the rounded bound:
+    a finite bound proves that no element overflowed. Python floats give ``inf``
+    on overflow without a warning.
+    """
+    top = _max_abs(a)
+    if not divide:
+        return top * _max_abs(b)
+    low = float(np.min(np.abs(b))) if b.size else 1.0
+    return top / low if low > 0.0 else math.inf
+
+
+def finite_product(what: str, a: np.ndarray, b: np.ndarray, *names: str, divide: bool = False):
+    """``a * b`` (or ``a / b``) of finite arrays, broadcast and made once, checked for overflow.
+
+    ``a`` and ``b`` must already be checked finite. Where the broadcast result is
+    larger than ``a`` and ``b`` together (a sweep grid built from small axes) and
+    ``max|a|·max|b|`` (``max|a| / min|b|``) is finite, no element can have
+    overflowed and the result is not scanned again; otherwise every element is
+    checked as in :func:`finite_result`. A result that is not finite raises
+    ``ValueError`` naming ``names``, without a numpy ``RuntimeWarning``.
+
+    Examples
+    --------
+    >>> finite_product("q", np.array([2.0, 3.0]), np.array([[1.0], [10.0]]), "a", "b")
+    array([[ 2.,  3.],
+           [20., 30.]])
+    >>> finite_product("q", np.array(1e300), np.array(1e-300), "a", "b", divide=True)
+    Traceback (most recent call last):
+    ...
+    ValueError: q: the result is not finite (NaN or overflow); check the magnitudes and units of a, b
+    """
+    op = np.true_divide if divide else np.multiply
+    size = math.prod(np.broadcast_shapes(a.shape, b.shape))
+    if size > _CHECK_EACH_UP_TO and size > a.size + b.size and math.isfinite(
+        _product_bound(a, b, divide)
+    ):
+        return op(a, b)
+    with np.errstate(over="ignore", divide="ignore", invalid="ignore"):
+        out = op(a, b)
+    return finite_result(what, out, *names)
 
 
 def _worst(arr: np.ndarray, bad: np.ndarray) -> str:

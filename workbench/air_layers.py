@@ -26,7 +26,6 @@ from dataclasses import dataclass
 from types import MappingProxyType
 
 import numpy as np
-from scipy import constants
 
 from workbench._checks import (
     ValidityWarning,
@@ -42,7 +41,7 @@ from workbench._checks import (
 )
 from workbench.air_properties import _air_properties
 from workbench.conduction import ArrayLike
-from workbench.surfaces import DIRECTIONS, _choice
+from workbench.surfaces import DIRECTIONS, STANDARD_GRAVITY, STEFAN_BOLTZMANN, _choice
 
 __all__ = [
     "METHODS",
@@ -67,8 +66,8 @@ METHODS: tuple[str, ...] = ("iso6946", "detailed")
 #: ISO 6946 ventilation classes, in order of increasing opening area.
 VENTILATION_CLASSES: tuple[str, ...] = ("unventilated", "slightly-ventilated", "well-ventilated")
 
-_SIGMA = constants.Stefan_Boltzmann
-_G = constants.g
+_SIGMA = STEFAN_BOLTZMANN  # CODATA 2018 [W/(m²·K⁴)], see workbench.surfaces
+_G = STANDARD_GRAVITY  # [m/s²], see workbench.surfaces
 _RA_CRITICAL = 1708.0  # horizontal layer heated from below, rigid boundaries
 
 # ISO 6946:2017 Annex D (Table B.1 of the 2007 edition), convective coefficient

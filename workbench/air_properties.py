@@ -36,7 +36,6 @@ import warnings
 from dataclasses import dataclass
 
 import numpy as np
-from scipy import constants
 
 from workbench._checks import (
     ValidityWarning,
@@ -69,7 +68,18 @@ AIR_TEMPERATURE_LIMITS: tuple[float, float] = (85.0, 1000.0)
 #: Molar mass of dry air (U.S. Standard Atmosphere 1976). [kg/mol]
 AIR_MOLAR_MASS: float = 28.9644e-3
 
-_STANDARD_PRESSURE = constants.atm  # 101325 Pa
+#: Molar gas constant R = N_A·k. [J/(mol·K)]
+#: CODATA 2018 recommended values (``codata-2018``): 8.314 462 618... , exact in
+#: the 2019 SI (N_A = 6.022 140 76 × 10²³ /mol and k = 1.380 649 × 10⁻²³ J/K
+#: exactly); here to double precision. Written out so that importing the core
+#: does not import scipy; tests/test_import_light.py checks it against scipy.
+MOLAR_GAS_CONSTANT: float = 8.31446261815324
+
+#: Standard atmosphere. [Pa]
+#: 101 325 Pa exactly, by definition (10th CGPM, 1954, from memory); CODATA 2018 lists it.
+STANDARD_ATMOSPHERE: float = 101325.0
+
+_STANDARD_PRESSURE = STANDARD_ATMOSPHERE
 
 # cubic fit of Incropera 7th ed. Table A.4 cp (from memory), x = (T - 300 K)/100 K
 _CP_COEFFS = (-0.121212121, 4.42424242, 3.37662338, 1006.44372)
@@ -108,7 +118,7 @@ def _cp(t: np.ndarray) -> np.ndarray:
 
 
 def _rho(t: np.ndarray, p: np.ndarray) -> np.ndarray:
-    return p * AIR_MOLAR_MASS / (constants.R * t)
+    return p * AIR_MOLAR_MASS / (MOLAR_GAS_CONSTANT * t)
 
 
 def air_conductivity(t: ArrayLike) -> float | np.ndarray:
@@ -228,8 +238,8 @@ def air_density(t: ArrayLike, pressure: ArrayLike = _STANDARD_PRESSURE) -> float
 
     References
     ----------
-    ``us-std-atm-1976`` (molar mass); ``codata-2018`` (gas constant, via
-    ``scipy.constants.R``).
+    ``us-std-atm-1976`` (molar mass); ``codata-2018`` (gas constant,
+    :data:`MOLAR_GAS_CONSTANT`).
 
     Examples
     --------

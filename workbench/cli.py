@@ -296,6 +296,13 @@ def _cmd_scenario_new(args) -> int:
     return EXIT_OK
 
 
+def _cmd_scenario_keys(args) -> int:
+    from workbench.scenario import scenario_keys_text
+
+    print(scenario_keys_text(args.kind, args.format), end="")
+    return EXIT_OK
+
+
 def _cmd_scenario_check(args) -> int:
     from workbench.scenario import check_scenario, load_scenario, scenario_hash
 
@@ -374,6 +381,10 @@ def build_parser() -> argparse.ArgumentParser:
     sn.add_argument("-o", "--output", help="file to write (default: stdout)")
     sn.add_argument("--force", action="store_true", help="replace an existing file")
     sn.set_defaults(func=_cmd_scenario_new)
+    sk = ssub.add_parser("keys", help="list every key a scenario file of a kind may hold")
+    sk.add_argument("kind", help="job kind, e.g. wall, shipper or housing")
+    sk.add_argument("--format", choices=("text", "markdown"), default="text")
+    sk.set_defaults(func=_cmd_scenario_keys)
     sc = ssub.add_parser("check", help="load a scenario and report problems with key and line")
     sc.add_argument("file")
     sc.set_defaults(func=_cmd_scenario_check)

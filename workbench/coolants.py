@@ -22,12 +22,15 @@ from __future__ import annotations
 import csv
 import functools
 from pathlib import Path
+from typing import TYPE_CHECKING
 
 import numpy as np
-import pandas as pd
 
 from workbench._checks import broadcast, positive
 from workbench.materials import MARKERS, load_sources, tables_dir
+
+if TYPE_CHECKING:  # pandas is imported inside the function that builds the frame
+    import pandas as pd
 
 __all__ = [
     "COOLANT_COLUMNS",
@@ -153,6 +156,8 @@ def _curated() -> pd.DataFrame:
         records.append(out)
     if problems:
         raise ValueError("problems in the coolants table:\n  " + "\n  ".join(problems))
+    import pandas as pd
+
     frame = pd.DataFrame(records).set_index("id")
     frame.attrs["units"] = dict(_UNITS, cost=f"{'/'.join(sorted(set(frame['currency'])))}/kg")
     return frame

@@ -31,7 +31,6 @@ from dataclasses import dataclass
 
 import numpy as np
 from numpy.typing import ArrayLike
-from scipy import constants
 
 from workbench._checks import (
     ValidityWarning,
@@ -53,7 +52,11 @@ from workbench.spreading import (
     spreading_resistance,
     wall_biot_number,
 )
-from workbench.surfaces import natural_convection_coefficient, radiation_coefficient
+from workbench.surfaces import (
+    STEFAN_BOLTZMANN,
+    natural_convection_coefficient,
+    radiation_coefficient,
+)
 
 __all__ = [
     "MOUNTINGS",
@@ -71,7 +74,7 @@ __all__ = [
     "housing_heat_capacity",
 ]
 
-_SIGMA = constants.Stefan_Boltzmann
+_SIGMA = STEFAN_BOLTZMANN  # CODATA 2018 [W/(m²·K⁴)], see workbench.surfaces
 
 #: The six faces of a box enclosure.
 FACES: tuple[str, ...] = ("top", "bottom", "front", "back", "left", "right")
@@ -1006,6 +1009,297 @@ def _read_profile(power_profile, duration):
     return pt[keep], pp[keep]
 
 
+@dataclass(frozen=True)
+class _WarmUpInputs:
+    """Checked, broadcast inputs of :func:`housing_warm_up` (its names and units).
+
+    ``p_const`` is the constant power [W] (zeros with a profile); ``prof_t``
+    [s] and ``prof_p`` [W] the profile or ``None``; ``cand`` the candidates'
+    shape and ``n_cand`` their number.
+    """
+
+    mounting: str
+    dur: float
+    lx: np.ndarray
+    ly: np.ndarray
+    lz: np.ndarray
+    t: np.ndarray
+    k: np.ndarray
+    eps: np.ndarray
+    ta: np.ndarray
+    cap: np.ndarray
+    rx: np.ndarray
+    p_const: np.ndarray
+    t0: np.ndarray
+    prof_t: np.ndarray | None
+    prof_p: np.ndarray | None
+    hi_user: np.ndarray | None
+    cand: tuple[int, ...]
+    n_cand: int
+
+
+def _warm_up_power(power, power_profile, dur: float):
+    """``(p_const, prof_t, prof_p)``: the constant power [W] or the profile [s], [W]."""
+    if power_profile is not None:
+        if power is not None:
+            raise ValueError(
+                "power: give None when power_profile is given (the profile replaces the "
+                "constant power) [W]"
+            )
+        prof_t, prof_p = _read_profile(power_profile, dur)
+        return np.zeros(()), prof_t, prof_p
+    if power is None:
+        raise ValueError("power: expected a number in W (or give power_profile)")
+    return nonnegative("power", power, "W"), None, None
+
+
+def _warm_up_inputs(
+    length, width, height, wall_thickness, k, emissivity, power, t_ambient, heat_capacity,
+    duration, mounting, power_profile, t_start, h_inside, extra_resistance,
+) -> _WarmUpInputs:
+    """Check and broadcast the inputs of :func:`housing_warm_up` (errors name its arguments)."""
+    mounting = _choice("mounting", mounting, MOUNTINGS)
+    dur = float(positive("duration", scalar("duration", duration, "s"), "s"))
+    lx = positive("length", length, "m")
+    ly = positive("width", width, "m")
+    lz = positive("height", height, "m")
+    t = positive("wall_thickness", wall_thickness, "m")
+    k_ = positive("k", k, "W/(m·K)")
+    eps = in_range("emissivity", emissivity, 0.0, 1.0, "-")
+    ta = absolute_temperature("t_ambient", t_ambient)
+    cap = positive("heat_capacity", heat_capacity, "J/K")
+    rx = nonnegative("extra_resistance", extra_resistance, "m²·K/W")
+    p_const, prof_t, prof_p = _warm_up_power(power, power_profile, dur)
+    t0 = ta if t_start is None else absolute_temperature("t_start", t_start)
+    if np.any(np.asarray(t0) < AIR_TEMPERATURE_LIMITS[0]):
+        raise ValueError(
+            f"t_start: {float(np.min(t0)):g} K is below the range of the air correlations "
+            f"({AIR_TEMPERATURE_LIMITS[0]:g} K: air condenses below it at 1 atm) [K]"
+        )
+    hi_user = None if h_inside is None else positive("h_inside", h_inside, "W/(m²·K)")
+    named = dict(length=lx, width=ly, height=lz, wall_thickness=t, k=k_, emissivity=eps,
+                 t_ambient=ta, heat_capacity=cap, power=p_const, t_start=t0)
+    empty = [n for n, v in named.items() if np.size(v) == 0]
+    if empty:
+        raise ValueError(f"{', '.join(empty)}: empty; give one value per candidate (or one for all)")
+    lx, ly, lz, t, k_, eps, ta, cap, rx, p_const, t0 = broadcast(
+        length=lx,
+        width=ly,
+        height=lz,
+        wall_thickness=t,
+        k=k_,
+        emissivity=eps,
+        t_ambient=ta,
+        heat_capacity=cap,
+        extra_resistance=rx,
+        power=p_const,
+        t_start=t0,
+    )
+    cand = ta.shape
+    n_cand = int(np.prod(cand, dtype=np.int64))
+    if n_cand == 0:
+        raise ValueError(f"housing_warm_up: no candidates given (broadcast shape {cand})")
+    if hi_user is not None:
+        try:
+            hi_user = np.broadcast_to(hi_user, cand)
+        except ValueError:
+            raise ValueError(
+                f"h_inside: shape {hi_user.shape} does not broadcast to the candidates' shape {cand}"
+            ) from None
+    return _WarmUpInputs(
+        mounting, dur, lx, ly, lz, t, k_, eps, ta, cap, rx, p_const, t0, prof_t, prof_p,
+        hi_user, cand, n_cand,
+    )
+
+
+def _warm_up_times(w: _WarmUpInputs, time_step) -> tuple[np.ndarray, int]:
+    """Time points [s] (uniform steps plus the profile's switching times) and the step count.
+
+    Too many steps or stored values is refused here, before any work.
+    """
+    dur = w.dur
+    if time_step is None:
+        n_steps = DEFAULT_WARM_UP_STEPS
+    else:
+        dt_max = float(positive("time_step", scalar("time_step", time_step, "s"), "s"))
+        n_float = np.ceil(dur / dt_max)
+        if n_float > MAX_WARM_UP_STEPS:
+            raise ValueError(
+                f"duration, time_step: {dur:g} s in steps of {dt_max:g} s is {n_float:.3g} steps; "
+                f"at most {MAX_WARM_UP_STEPS} (choose time_step >= {dur / MAX_WARM_UP_STEPS:.3g} s "
+                "or a shorter duration)"
+            )
+        n_steps = max(int(n_float), 1)
+    times = np.linspace(0.0, dur, n_steps + 1)
+    if w.prof_t is not None:
+        times = np.union1d(times, w.prof_t)
+    n_t = times.size
+    if n_t - 1 > MAX_WARM_UP_STEPS:
+        raise ValueError(
+            f"power_profile: the profile adds its switching times to the {n_steps} steps, "
+            f"{n_t - 1} in all; at most {MAX_WARM_UP_STEPS} (use a larger time_step or fewer "
+            "profile entries)"
+        )
+    if w.n_cand * n_t > MAX_WARM_UP_VALUES:
+        raise ValueError(
+            f"time_step: {w.n_cand} candidates × {n_t} time points = {w.n_cand * n_t} values; at "
+            f"most {MAX_WARM_UP_VALUES} (use a larger time_step or fewer candidates)"
+        )
+    return times, n_steps
+
+
+def _loss_table(w: _WarmUpInputs, faces, p_max: np.ndarray):
+    """Heat loss [W] tabulated over surface temperature [K], per candidate.
+
+    Returns ``(lo, hi, q_tab)``: the table runs from ``lo`` (the lowest start)
+    to ``hi`` (above the steady state at the highest power ``p_max`` [W]) in
+    :data:`_LOSS_NODES` uniform nodes; ``q_tab`` has shape ``(*cand, nodes)``.
+    """
+    eps, ta, t0 = w.eps, w.ta, w.t0
+    a_out = faces.area_outside
+    area = a_out.sum(axis=0)
+    lengths_out = faces.length_outside[..., None]
+
+    def loss(ts, ta_):
+        """Heat leaving through the exchanging faces at surface temperature ts. [W]"""
+        hc = _face_h(ts, ta_, lengths_out, faces.orientation_outside)
+        hr = eps[..., None] * _SIGMA * (ts * ts + ta_ * ta_) * (ts + ta_)
+        return ((hc + hr) * a_out[..., None]).sum(axis=0) * (ts - ta_)
+
+    # upper end of the table: above the steady state at the highest power
+    t_film_max = AIR_TEMPERATURE_LIMITS[1]
+    rise_max = np.maximum(2.0 * t_film_max - 2.0 * ta - 1.0, 1.0)
+    rise = np.minimum(np.maximum(p_max / (5.0 * area), 1.0), rise_max)
+    tai = ta[..., None]
+    with warnings.catch_warnings():
+        warnings.simplefilter("ignore", ValidityWarning)
+        for _ in range(40):
+            short = loss((ta + rise)[..., None], tai)[..., 0] < p_max
+            if not np.any(short):
+                break
+            if np.any(short & (rise >= rise_max)):
+                bad = np.flatnonzero((short & (rise >= rise_max)).ravel()).tolist()
+                raise ValueError(
+                    "power, emissivity, length, width, height: no steady state within the range "
+                    f"of the air correlations for candidates {bad}"
+                )
+            rise = np.where(short, np.minimum(2.0 * rise, rise_max), rise)
+        lo = np.minimum(ta, t0)
+        hi = np.maximum(ta + 1.02 * rise, t0)
+        if np.any(hi > 2.0 * t_film_max - ta):
+            raise ValueError(
+                "t_start: above the range of the air correlations (film temperature up to "
+                f"{t_film_max:g} K)"
+            )
+        grid = lo[..., None] + (hi - lo)[..., None] * np.linspace(0.0, 1.0, _LOSS_NODES)
+        q_tab = loss(grid, tai)  # (*cand, nodes)
+    return lo, hi, q_tab
+
+
+def _march_surface(w: _WarmUpInputs, faces, times, p_step, p_max) -> np.ndarray:
+    """Surface temperature [K] at each time point, shape ``(n_cand, n_t)``.
+
+    Exact exponential update of :math:`C\\,dT/dt = P - Q(T)` with :math:`Q`
+    piecewise linear from :func:`_loss_table` (see :func:`housing_warm_up`, Notes).
+    """
+    n_cand, n_t = w.n_cand, times.size
+    dts = np.diff(times)
+    lo, hi, q_tab = _loss_table(w, faces, p_max)
+    h_grid = ((hi - lo) / (_LOSS_NODES - 1)).ravel()
+    lo_f = lo.ravel()
+    q_f = q_tab.reshape(n_cand, _LOSS_NODES)
+    g_f = np.diff(q_f, axis=1) / h_grid[:, None]  # slope of each cell [W/K]
+    q_nodes = q_f[:, :-1]
+    base = np.arange(n_cand) * (_LOSS_NODES - 1)
+    q_flat, g_flat = q_nodes.ravel(), g_f.ravel()
+    c_f = w.cap.ravel()
+    p_f = w.p_const.ravel()
+
+    ts_out = np.empty((n_cand, n_t))
+    ts_out[:, 0] = T = w.t0.ravel().copy()
+    for n in range(n_t - 1):
+        j = np.clip(((T - lo_f) / h_grid).astype(np.int64), 0, _LOSS_NODES - 2)
+        i = base + j
+        g = g_flat[i]
+        q = q_flat[i] + g * (T - (lo_f + j * h_grid))
+        x = g * (dts[n] / c_f)
+        phi = np.where(x > 1e-8, -np.expm1(-x) / np.where(x > 1e-8, x, 1.0), 1.0 - 0.5 * x)
+        p_n = p_f if p_step is None else p_step[n]
+        T = T + (p_n - q) * (dts[n] / c_f) * phi
+        ts_out[:, n + 1] = T
+    return ts_out
+
+
+def _inside_air_table(w: _WarmUpInputs, faces, ts_out, levels, r_over_a, a_in):
+    """Inside-air rise over the inner wall [K], tabulated per power level and candidate.
+
+    Returns ``(w_lo, w_hi, rise_tab)``: the inner-wall temperature range [K]
+    of each (level, candidate) and the rise at :data:`_INSIDE_NODES` nodes across it.
+    """
+    n_cand = w.n_cand
+    t_film_max = AIR_TEMPERATURE_LIMITS[1]
+    area_in = a_in.sum(axis=0)
+    n_lv = levels.shape[0]
+    # twi range per candidate and level over the session
+    w_lo = ts_out.min(axis=1)[None, :] + levels * r_over_a[None, :]
+    w_hi = ts_out.max(axis=1)[None, :] + levels * r_over_a[None, :]
+    w_hi = np.maximum(w_hi, w_lo + 1e-6)
+    wg = w_lo[..., None] + (w_hi - w_lo)[..., None] * np.linspace(0.0, 1.0, _INSIDE_NODES)
+    pl = np.broadcast_to(levels[..., None], wg.shape)
+    li = faces.length_inside.reshape(len(faces.names), n_cand)[:, None, :, None]
+    ai = a_in[:, None, :, None]
+
+    def inner(ti):
+        h = _face_h(wg, ti, li, faces.orientation_inside)
+        return (h * ai).sum(axis=0) * (ti - wg) - pl
+
+    with warnings.catch_warnings():
+        warnings.simplefilter("ignore", ValidityWarning)
+        step_i = np.maximum(pl / (2.0 * area_in[None, :, None]), 1.0)
+        rise_i = float(np.min(np.maximum(2.0 * t_film_max - 2.0 * wg - 1.0, 1.0)))
+        try:
+            t_i_tab, _ = _bisect(inner, wg, step_i, 1e-6, 200, "inside-air balance", rise_i)
+        except ValueError as exc:
+            raise ValueError(
+                f"power, k, wall_thickness: no inside-air balance within the range of the air "
+                f"correlations ({exc})"
+            ) from None
+    return w_lo, w_hi, (t_i_tab - wg).reshape(n_lv * n_cand, _INSIDE_NODES)
+
+
+def _inside_air(w: _WarmUpInputs, faces, ts_out, p_at, levels, level_at) -> np.ndarray:
+    """Inside-air temperature [K] at each time point, quasi-steady over the surface.
+
+    :math:`T_{wi} = T_s + P\\,(t/k + R_{extra})/A_m`, then the inside films
+    (a given ``h_inside`` or the correlations, tabulated and interpolated).
+    """
+    n_cand = w.n_cand
+    t_film_max = AIR_TEMPERATURE_LIMITS[1]
+    a_out = faces.area_outside
+    a_mean = (np.sqrt(a_out) * np.sqrt(faces.area_inside)).sum(axis=0).ravel()
+    r_wall = (w.t / w.k + w.rx).ravel()
+    twi = ts_out + p_at * (r_wall / a_mean)[:, None]
+    if np.any(twi > 2.0 * t_film_max - w.ta.ravel()[:, None]) or not np.all(np.isfinite(twi)):
+        raise ValueError(
+            "k, wall_thickness, extra_resistance, power: the inner wall temperature leaves the "
+            "range of the air correlations"
+        )
+    a_in = faces.area_inside.reshape(len(faces.names), n_cand)
+    if w.hi_user is not None:
+        return twi + p_at / (w.hi_user.ravel() * a_in.sum(axis=0))[:, None]
+    w_lo, w_hi, rise_tab = _inside_air_table(w, faces, ts_out, levels, r_wall / a_mean, a_in)
+    ci = np.arange(n_cand)[:, None]
+    row = level_at[None, :] * n_cand + ci  # (n_cand, n_t)
+    wl = w_lo.ravel()[row]
+    wh = (w_hi - w_lo).ravel()[row] / (_INSIDE_NODES - 1)
+    xf = np.clip((twi - wl) / wh, 0.0, _INSIDE_NODES - 1)
+    j0 = np.minimum(xf.astype(np.int64), _INSIDE_NODES - 2)
+    fr = xf - j0
+    r0 = rise_tab[row, j0]
+    r1 = rise_tab[row, j0 + 1]
+    return twi + r0 + fr * (r1 - r0)
+
+
 def housing_warm_up(
     length: ArrayLike,
     width: ArrayLike,
@@ -1128,168 +1422,28 @@ def housing_warm_up(
     >>> round(s.t_surface - 273.15, 1)
     34.6
     """
-    mounting = _choice("mounting", mounting, MOUNTINGS)
-    dur = float(positive("duration", scalar("duration", duration, "s"), "s"))
-    lx = positive("length", length, "m")
-    ly = positive("width", width, "m")
-    lz = positive("height", height, "m")
-    t = positive("wall_thickness", wall_thickness, "m")
-    k_ = positive("k", k, "W/(m·K)")
-    eps = in_range("emissivity", emissivity, 0.0, 1.0, "-")
-    ta = absolute_temperature("t_ambient", t_ambient)
-    cap = positive("heat_capacity", heat_capacity, "J/K")
-    rx = nonnegative("extra_resistance", extra_resistance, "m²·K/W")
-    if power_profile is not None:
-        if power is not None:
-            raise ValueError(
-                "power: give None when power_profile is given (the profile replaces the "
-                "constant power) [W]"
-            )
-        prof_t, prof_p = _read_profile(power_profile, dur)
-        p_const = np.zeros(())
-    else:
-        if power is None:
-            raise ValueError("power: expected a number in W (or give power_profile)")
-        p_const = nonnegative("power", power, "W")
-        prof_t = prof_p = None
-    t0 = ta if t_start is None else absolute_temperature("t_start", t_start)
-    if np.any(np.asarray(t0) < AIR_TEMPERATURE_LIMITS[0]):
-        raise ValueError(
-            f"t_start: {float(np.min(t0)):g} K is below the range of the air correlations "
-            f"({AIR_TEMPERATURE_LIMITS[0]:g} K: air condenses below it at 1 atm) [K]"
-        )
-    hi_user = None if h_inside is None else positive("h_inside", h_inside, "W/(m²·K)")
-    named = dict(length=lx, width=ly, height=lz, wall_thickness=t, k=k_, emissivity=eps,
-                 t_ambient=ta, heat_capacity=cap, power=p_const, t_start=t0)
-    empty = [n for n, v in named.items() if np.size(v) == 0]
-    if empty:
-        raise ValueError(f"{', '.join(empty)}: empty; give one value per candidate (or one for all)")
-    lx, ly, lz, t, k_, eps, ta, cap, rx, p_const, t0 = broadcast(
-        length=lx,
-        width=ly,
-        height=lz,
-        wall_thickness=t,
-        k=k_,
-        emissivity=eps,
-        t_ambient=ta,
-        heat_capacity=cap,
-        extra_resistance=rx,
-        power=p_const,
-        t_start=t0,
+    w = _warm_up_inputs(
+        length, width, height, wall_thickness, k, emissivity, power, t_ambient, heat_capacity,
+        duration, mounting, power_profile, t_start, h_inside, extra_resistance,
     )
-    cand = ta.shape
-    n_cand = int(np.prod(cand, dtype=np.int64))
-    if n_cand == 0:
-        raise ValueError(f"housing_warm_up: no candidates given (broadcast shape {cand})")
-    if hi_user is not None:
-        try:
-            hi_user = np.broadcast_to(hi_user, cand)
-        except ValueError:
-            raise ValueError(
-                f"h_inside: shape {hi_user.shape} does not broadcast to the candidates' shape {cand}"
-            ) from None
-
-    # time grid: uniform steps of at most time_step, plus the profile's switching times
-    if time_step is None:
-        n_steps = DEFAULT_WARM_UP_STEPS
-    else:
-        dt_max = float(positive("time_step", scalar("time_step", time_step, "s"), "s"))
-        n_float = np.ceil(dur / dt_max)
-        if n_float > MAX_WARM_UP_STEPS:
-            raise ValueError(
-                f"duration, time_step: {dur:g} s in steps of {dt_max:g} s is {n_float:.3g} steps; "
-                f"at most {MAX_WARM_UP_STEPS} (choose time_step >= {dur / MAX_WARM_UP_STEPS:.3g} s "
-                "or a shorter duration)"
-            )
-        n_steps = max(int(n_float), 1)
-    times = np.linspace(0.0, dur, n_steps + 1)
-    if prof_t is not None:
-        times = np.union1d(times, prof_t)
+    cand, n_cand = w.cand, w.n_cand
+    times, _ = _warm_up_times(w, time_step)
     n_t = times.size
-    if n_t - 1 > MAX_WARM_UP_STEPS:
-        raise ValueError(
-            f"power_profile: the profile adds its switching times to the {n_steps} steps, "
-            f"{n_t - 1} in all; at most {MAX_WARM_UP_STEPS} (use a larger time_step or fewer "
-            "profile entries)"
-        )
-    if n_cand * n_t > MAX_WARM_UP_VALUES:
-        raise ValueError(
-            f"time_step: {n_cand} candidates × {n_t} time points = {n_cand * n_t} values; at "
-            f"most {MAX_WARM_UP_VALUES} (use a larger time_step or fewer candidates)"
-        )
-    dts = np.diff(times)
-    if prof_t is not None:
-        p_step = _power_steps((prof_t, prof_p), times)  # (n_steps,)
-        p_levels = np.unique(prof_p)
-        p_max = np.full(cand, float(prof_p.max()))
+    if w.prof_t is not None:
+        p_step = _power_steps((w.prof_t, w.prof_p), times)  # (n_steps,)
+        p_levels = np.unique(w.prof_p)
+        p_max = np.full(cand, float(w.prof_p.max()))
     else:
         p_step = None
         p_levels = None
-        p_max = p_const
+        p_max = w.p_const
 
-    faces = enclosure_faces(lx, ly, lz, t, mounting)
-    a_out = faces.area_outside
-    area = a_out.sum(axis=0)
-    lengths_out = faces.length_outside[..., None]
-
-    def loss(ts, ta_):
-        """Heat leaving through the exchanging faces at surface temperature ts. [W]"""
-        hc = _face_h(ts, ta_, lengths_out, faces.orientation_outside)
-        hr = eps[..., None] * _SIGMA * (ts * ts + ta_ * ta_) * (ts + ta_)
-        return ((hc + hr) * a_out[..., None]).sum(axis=0) * (ts - ta_)
-
-    # upper end of the table: above the steady state at the highest power
-    t_film_max = AIR_TEMPERATURE_LIMITS[1]
-    rise_max = np.maximum(2.0 * t_film_max - 2.0 * ta - 1.0, 1.0)
-    rise = np.minimum(np.maximum(p_max / (5.0 * area), 1.0), rise_max)
-    tai = ta[..., None]
-    with warnings.catch_warnings():
-        warnings.simplefilter("ignore", ValidityWarning)
-        for _ in range(40):
-            short = loss((ta + rise)[..., None], tai)[..., 0] < p_max
-            if not np.any(short):
-                break
-            if np.any(short & (rise >= rise_max)):
-                bad = np.flatnonzero((short & (rise >= rise_max)).ravel()).tolist()
-                raise ValueError(
-                    "power, emissivity, length, width, height: no steady state within the range "
-                    f"of the air correlations for candidates {bad}"
-                )
-            rise = np.where(short, np.minimum(2.0 * rise, rise_max), rise)
-        lo = np.minimum(ta, t0)
-        hi = np.maximum(ta + 1.02 * rise, t0)
-        if np.any(hi > 2.0 * t_film_max - ta):
-            raise ValueError(
-                "t_start: above the range of the air correlations (film temperature up to "
-                f"{t_film_max:g} K)"
-            )
-        grid = lo[..., None] + (hi - lo)[..., None] * np.linspace(0.0, 1.0, _LOSS_NODES)
-        q_tab = loss(grid, tai)  # (*cand, nodes)
-    h_grid = ((hi - lo) / (_LOSS_NODES - 1)).ravel()
-    lo_f = lo.ravel()
-    q_f = q_tab.reshape(n_cand, _LOSS_NODES)
-    g_f = np.diff(q_f, axis=1) / h_grid[:, None]  # slope of each cell [W/K]
-    q_nodes = q_f[:, :-1]
-    base = np.arange(n_cand) * (_LOSS_NODES - 1)
-    q_flat, g_flat = q_nodes.ravel(), g_f.ravel()
-    c_f = cap.ravel()
-    p_f = p_const.ravel()
-
-    ts_out = np.empty((n_cand, n_t))
-    ts_out[:, 0] = T = t0.ravel().copy()
-    for n in range(n_t - 1):
-        j = np.clip(((T - lo_f) / h_grid).astype(np.int64), 0, _LOSS_NODES - 2)
-        i = base + j
-        g = g_flat[i]
-        q = q_flat[i] + g * (T - (lo_f + j * h_grid))
-        x = g * (dts[n] / c_f)
-        phi = np.where(x > 1e-8, -np.expm1(-x) / np.where(x > 1e-8, x, 1.0), 1.0 - 0.5 * x)
-        p_n = p_f if p_step is None else p_step[n]
-        T = T + (p_n - q) * (dts[n] / c_f) * phi
-        ts_out[:, n + 1] = T
+    faces = enclosure_faces(w.lx, w.ly, w.lz, w.t, w.mounting)
+    ts_out = _march_surface(w, faces, times, p_step, p_max)
 
     # power applying from each time point on (the last point keeps the last step's)
     if p_step is None:
+        p_f = w.p_const.ravel()
         p_at = np.broadcast_to(p_f[:, None], (n_cand, n_t))
         level_at = np.zeros(n_t, dtype=np.int64)
         levels = p_f[None, :]  # (L=1, n_cand)
@@ -1298,68 +1452,18 @@ def housing_warm_up(
         p_at = np.broadcast_to(p_pt[None, :], (n_cand, n_t))
         level_at = np.searchsorted(p_levels, p_pt)
         levels = np.broadcast_to(p_levels[:, None], (p_levels.size, n_cand))
-
-    # inside air, quasi-steady: T_wi = T_s + P r / A_m; T_i from the inside films
-    a_mean = (np.sqrt(a_out) * np.sqrt(faces.area_inside)).sum(axis=0).ravel()
-    r_wall = (t / k_ + rx).ravel()
-    twi = ts_out + p_at * (r_wall / a_mean)[:, None]
-    if np.any(twi > 2.0 * t_film_max - ta.ravel()[:, None]) or not np.all(np.isfinite(twi)):
-        raise ValueError(
-            "k, wall_thickness, extra_resistance, power: the inner wall temperature leaves the "
-            "range of the air correlations"
-        )
-    a_in = faces.area_inside.reshape(len(faces.names), n_cand)
-    area_in = a_in.sum(axis=0)
-    if hi_user is not None:
-        t_in = twi + p_at / (hi_user.ravel() * area_in)[:, None]
-    else:
-        n_lv = levels.shape[0]
-        # twi range per candidate and level over the session
-        w_lo = ts_out.min(axis=1)[None, :] + levels * (r_wall / a_mean)[None, :]
-        w_hi = ts_out.max(axis=1)[None, :] + levels * (r_wall / a_mean)[None, :]
-        w_hi = np.maximum(w_hi, w_lo + 1e-6)
-        wg = w_lo[..., None] + (w_hi - w_lo)[..., None] * np.linspace(0.0, 1.0, _INSIDE_NODES)
-        pl = np.broadcast_to(levels[..., None], wg.shape)
-        li = faces.length_inside.reshape(len(faces.names), n_cand)[:, None, :, None]
-        ai = a_in[:, None, :, None]
-
-        def inner(ti):
-            h = _face_h(wg, ti, li, faces.orientation_inside)
-            return (h * ai).sum(axis=0) * (ti - wg) - pl
-
-        with warnings.catch_warnings():
-            warnings.simplefilter("ignore", ValidityWarning)
-            step_i = np.maximum(pl / (2.0 * area_in[None, :, None]), 1.0)
-            rise_i = float(np.min(np.maximum(2.0 * t_film_max - 2.0 * wg - 1.0, 1.0)))
-            try:
-                t_i_tab, _ = _bisect(inner, wg, step_i, 1e-6, 200, "inside-air balance", rise_i)
-            except ValueError as exc:
-                raise ValueError(
-                    f"power, k, wall_thickness: no inside-air balance within the range of the air "
-                    f"correlations ({exc})"
-                ) from None
-        rise_tab = (t_i_tab - wg).reshape(n_lv * n_cand, _INSIDE_NODES)
-        ci = np.arange(n_cand)[:, None]
-        row = level_at[None, :] * n_cand + ci  # (n_cand, n_t)
-        wl = w_lo.ravel()[row]
-        wh = (w_hi - w_lo).ravel()[row] / (_INSIDE_NODES - 1)
-        xf = np.clip((twi - wl) / wh, 0.0, _INSIDE_NODES - 1)
-        j0 = np.minimum(xf.astype(np.int64), _INSIDE_NODES - 2)
-        fr = xf - j0
-        r0 = rise_tab[row, j0]
-        r1 = rise_tab[row, j0 + 1]
-        t_in = twi + r0 + fr * (r1 - r0)
+    t_in = _inside_air(w, faces, ts_out, p_at, levels, level_at)
 
     # validity warnings once, at the hottest surface reached
     ts_max = ts_out.max(axis=1).reshape(cand)
-    _face_h(ts_max, ta, faces.length_outside, faces.orientation_outside)
+    _face_h(ts_max, w.ta, faces.length_outside, faces.orientation_outside)
     finite_result("housing_warm_up", (ts_out, t_in), "power", "heat_capacity")
     return WarmUp(
         time=times,
         t_surface=ts_out.reshape(cand + (n_t,)),
         t_air_inside=t_in.reshape(cand + (n_t,)),
         power=np.array(p_at).reshape(cand + (n_t,)),
-        t_ambient=scalar_or_array(ta),
-        heat_capacity=scalar_or_array(cap),
+        t_ambient=scalar_or_array(w.ta),
+        heat_capacity=scalar_or_array(w.cap),
         steps=n_t - 1,
     )

@@ -143,6 +143,57 @@ def load_ambient_profile(
     if isinstance(ignore_columns, str):
         ignore_columns = (ignore_columns,)
     name, hline, header, rows = _read_rows(Path(path))
+    cols = _header_columns(name, hline, header, ignore_columns)
+    _check_row_count(name, hline, rows)
+    lines, t_raw, x_raw = _readings(name, header, rows, cols)
+    time_col, time_kind, time_unit, temp_col, temp_unit = cols
+    times = np.atleast_1d(np.asarray(units.to_si(t_raw, time_unit, "time", "elapsed"), float)) if (
+        time_kind == "elapsed"
+    ) else t_raw
+    temps = np.atleast_1d(np.asarray(units.to_si(x_raw, temp_unit, "temperature", "temperature"), float))
+    _check_times(name, lines, times, t_raw, cols, gap)
+    _check_temperatures(name, lines, temps, x_raw, cols)
+    return transient.ambient_profile((times, temps))
+
+
+def _time_header(name: str, hline: int, pos: int, col: str, unit: str | None) -> None:
+    """Check the time column's header cell: ``elapsed [unit]`` or ``timestamp``."""
+    from workbench import units
+
+    if col == "elapsed" and not unit:
+        raise ValueError(
+            f"{_where(name, hline, pos, col)}: missing unit; write it in the header, "
+            "e.g. 'elapsed [h]' or 'elapsed [min]'"
+        )
+    if col == "timestamp" and unit:
+        raise ValueError(
+            f"{_where(name, hline, pos, col)}: ISO 8601 timestamps carry no unit; write "
+            "'timestamp' or use 'elapsed [unit]'"
+        )
+    if unit:
+        try:
+            units.to_si(1.0, unit, "time", col)
+        except ValueError as exc:
+            raise ValueError(f"{_where(name, hline, pos, col)}: {exc}") from None
+
+
+def _temperature_header(name: str, hline: int, pos: int, col: str, unit: str | None) -> None:
+    """Check the temperature column's header cell: ``temperature [unit]``."""
+    from workbench import units
+
+    if not unit:
+        raise ValueError(
+            f"{_where(name, hline, pos, col)}: missing unit; write it in the header, "
+            "e.g. 'temperature [°C]', 'temperature [°F]' or 'temperature [K]'"
+        )
+    try:
+        units.to_si(300.0 if unit.strip() in ("K", "kelvin") else 20.0, unit, "temperature", col)
+    except ValueError as exc:
+        raise ValueError(f"{_where(name, hline, pos, col)}: {exc}") from None
+
+
+def _header_columns(name: str, hline: int, header: list[str], ignore_columns) -> tuple:
+    """``(time_col, time_kind, time_unit, temp_col, temp_unit)`` from the header (1-based columns)."""
     time_col = temp_col = None
     time_kind = time_unit = temp_unit = None
     for pos, raw in enumerate(header, start=1):
@@ -162,34 +213,12 @@ def load_ambient_profile(
                     f"{_where(name, hline, pos, col)}: a second time column; give one of "
                     f"{list(TIME_COLUMNS)}"
                 )
-            if col == "elapsed" and not unit:
-                raise ValueError(
-                    f"{_where(name, hline, pos, col)}: missing unit; write it in the header, "
-                    "e.g. 'elapsed [h]' or 'elapsed [min]'"
-                )
-            if col == "timestamp" and unit:
-                raise ValueError(
-                    f"{_where(name, hline, pos, col)}: ISO 8601 timestamps carry no unit; write "
-                    "'timestamp' or use 'elapsed [unit]'"
-                )
-            if unit:
-                try:
-                    units.to_si(1.0, unit, "time", col)
-                except ValueError as exc:
-                    raise ValueError(f"{_where(name, hline, pos, col)}: {exc}") from None
+            _time_header(name, hline, pos, col, unit)
             time_col, time_kind, time_unit = pos, col, unit
         elif col == TEMPERATURE_COLUMN:
             if temp_col is not None:
                 raise ValueError(f"{_where(name, hline, pos, col)}: a second temperature column")
-            if not unit:
-                raise ValueError(
-                    f"{_where(name, hline, pos, col)}: missing unit; write it in the header, "
-                    "e.g. 'temperature [°C]', 'temperature [°F]' or 'temperature [K]'"
-                )
-            try:
-                units.to_si(300.0 if unit.strip() in ("K", "kelvin") else 20.0, unit, "temperature", col)
-            except ValueError as exc:
-                raise ValueError(f"{_where(name, hline, pos, col)}: {exc}") from None
+            _temperature_header(name, hline, pos, col, unit)
             temp_col, temp_unit = pos, unit
         else:
             raise ValueError(
@@ -202,6 +231,10 @@ def load_ambient_profile(
         )
     if temp_col is None:
         raise ValueError(f"{name}:{hline}:1: no temperature column; expected 'temperature [unit]'")
+    return time_col, time_kind, time_unit, temp_col, temp_unit
+
+
+def _check_row_count(name: str, hline: int, rows: list) -> None:
     if not rows:
         raise ValueError(f"{name}:{hline}:1: no readings below the header")
     if len(rows) > transient.MAX_PROFILE_POINTS:
@@ -210,6 +243,12 @@ def load_ambient_profile(
             f"{transient.MAX_PROFILE_POINTS} (workbench.transient.MAX_PROFILE_POINTS): export the "
             "logger at a coarser interval or split the trip"
         )
+
+
+def _readings(name: str, header: list[str], rows: list, cols: tuple):
+    """``(lines, t_raw, x_raw)``: file lines, times in the file's unit (timestamps: s from
+    the first) and temperatures in the file's unit."""
+    time_col, time_kind, time_unit, temp_col, temp_unit = cols
     lines = np.empty(len(rows), dtype=np.int64)
     t_raw = np.empty(len(rows))
     x_raw = np.empty(len(rows))
@@ -243,10 +282,12 @@ def load_ambient_profile(
         else:
             t_raw[i] = _number(cell, name, line, time_col, "elapsed", time_unit)
         x_raw[i] = _number(cells[temp_col - 1], name, line, temp_col, "temperature", temp_unit)
-    times = np.atleast_1d(np.asarray(units.to_si(t_raw, time_unit, "time", "elapsed"), float)) if (
-        time_kind == "elapsed"
-    ) else t_raw
-    temps = np.atleast_1d(np.asarray(units.to_si(x_raw, temp_unit, "temperature", "temperature"), float))
+    return lines, t_raw, x_raw
+
+
+def _check_times(name: str, lines, times, t_raw, cols: tuple, gap: float) -> None:
+    """Elapsed time starts at 0; times increase strictly, with no gap over ``gap`` [s]."""
+    time_col, time_kind, time_unit = cols[:3]
     if time_kind == "elapsed" and times[0] != 0.0:
         raise ValueError(
             f"{_where(name, int(lines[0]), time_col, 'elapsed')}: the first reading must be at 0 "
@@ -270,6 +311,11 @@ def load_ambient_profile(
             f"the previous reading (line {int(lines[i - 1])}); the limit is max_gap = "
             f"{gap / 3600:.3g} h: check for a lost stretch, or raise max_gap [s] on purpose"
         )
+
+
+def _check_temperatures(name: str, lines, temps, x_raw, cols: tuple) -> None:
+    """Temperatures [K] within :data:`workbench.transient.AMBIENT_RANGE`."""
+    temp_col, temp_unit = cols[3:]
     lo, hi = transient.AMBIENT_RANGE
     out = np.flatnonzero((temps < lo) | (temps > hi))
     if out.size:
@@ -279,7 +325,6 @@ def load_ambient_profile(
             f"= {temps[i]:.2f} K lies outside [{lo:g}, {hi:g}] K (−100 … +100 °C); check the unit "
             "in the header"
         )
-    return transient.ambient_profile((times, temps))
 
 
 def _number(cell: str, path: str, line: int, col: int, column: str, unit: str | None) -> float:

@@ -58,11 +58,14 @@ from dataclasses import dataclass, field
 from importlib import resources
 from pathlib import Path
 from types import MappingProxyType
+from typing import TYPE_CHECKING
 
 import numpy as np
-import pandas as pd
 
 from workbench._csvtext import CsvSyntaxError, csv_rows
+
+if TYPE_CHECKING:  # pandas is imported inside the functions that build frames
+    import pandas as pd
 
 __all__ = [
     "FAMILIES",
@@ -568,6 +571,8 @@ def load_sources(path=None) -> pd.DataFrame:
         if problems:
             raise MaterialsFileError(problems)
         sources.update(extra)
+    import pandas as pd
+
     frame = pd.DataFrame.from_dict(sources, orient="index")[list(_SOURCE_TABLE_COLUMNS)]
     frame["resolved"] = [_resolve(k, sources) for k in frame.index]
     return frame.drop(columns="key").rename_axis("key")
@@ -616,23 +621,9 @@ def _unit_problem(unit: str, kind: str, column: str) -> str | None:
     return None
 
 
-def _parse_materials(
-    path: Path, sources: Mapping[str, Mapping[str, str]], curated: bool
-) -> tuple[list[dict], list[str]]:
-    """Parse and check a materials file; return (records in SI, problems)."""
-    table = _read_csv(path)
-    if not table.header:
-        return [], table.problems
+def _header_units(table: _Table, columns: dict[str, tuple[int, str | None]]) -> dict[str, str | None]:
+    """Unit of each column from the header (``None``: none given; ``"?"``: a bad one, reported)."""
     name = table.path
-    valid = _CURATED_COLUMNS if curated else _VALID_COLUMNS
-    columns = _split_header(table, valid)
-    required = _CURATED_COLUMNS if curated else _USER_REQUIRED
-    for col in required:
-        if col not in columns:
-            table.problems.append(
-                _problem(name, table.header_line, col, "required column is missing")
-            )
-    # header units
     units: dict[str, str | None] = {}
     for col, (_, unit) in columns.items():
         if unit is None or unit == "":
@@ -649,6 +640,156 @@ def _parse_materials(
             units[col] = "?"
         else:
             units[col] = unit
+    return units
+
+
+def _row_text(rec: dict, columns, seen: dict[str, int], name: str, line: int, p: list[str]) -> str | None:
+    """Check the id, name and family of one record; return its family (``None`` if unknown)."""
+    rid = rec["id"]
+    if not rid:
+        p.append(_problem(name, line, "id", "empty id"))
+    elif not _ID_PATTERN.match(rid):
+        p.append(
+            _problem(
+                name,
+                line,
+                "id",
+                f"id {rid!r} is not snake_case (a-z, 0-9, _; starting with a letter)",
+            )
+        )
+    elif rid in seen:
+        p.append(
+            _problem(name, line, "id", f"duplicate id {rid!r} (first on line {seen[rid]})")
+        )
+    else:
+        seen[rid] = line
+    if "name" in columns and not rec["name"]:
+        p.append(_problem(name, line, "name", "empty name"))
+    family: str | None = rec["family"]
+    if family not in FAMILIES:
+        if "family" in columns:
+            p.append(
+                _problem(
+                    name,
+                    line,
+                    "family",
+                    f"unknown family {family!r}; valid families: {', '.join(FAMILIES)}",
+                )
+            )
+        family = None
+    return family
+
+
+def _row_value(rec: dict, col: str, raw: str, unit: str, kind: str, name: str, line: int, p: list[str]):
+    """One numeric cell with a header unit, in table units; ``None`` after reporting a problem."""
+    value = _to_float(raw)
+    try:
+        if kind == "cost":
+            basis = rec["cost_basis"]
+            ckind = {"per_kg": "cost_per_mass", "per_m3": "cost_per_volume"}.get(basis)
+            if ckind is None:
+                p.append(
+                    _problem(
+                        name,
+                        line,
+                        "cost_basis",
+                        f"{basis!r} is not a cost basis; valid: {', '.join(_COST_BASES)}",
+                    )
+                )
+                return None
+            value = _convert(value, unit, ckind, col, rec["currency"] or None)
+        else:
+            value = _convert(value, unit, kind, col)
+    except ValueError as exc:
+        p.append(_problem(name, line, col, f"cannot convert {raw} {unit}: {exc}"))
+        return None
+    if col.startswith("t_service"):
+        value -= 273.15  # the service limits are kept in °C until the end
+    return value
+
+
+def _row_numbers(rec: dict, cells, columns, units, curated: bool, name: str, line: int, p: list[str]) -> None:
+    """The numeric values of one record (NaN where absent or bad; problems reported)."""
+    for col, (_, _, kind) in _NUMERIC.items():
+        raw = _cell(cells, columns, col)
+        rec[col] = math.nan
+        if col not in columns:
+            continue
+        if raw == "":
+            if curated and col not in _OPTIONAL_CURATED:
+                p.append(_problem(name, line, col, "empty value"))
+            elif not curated and col in _USER_REQUIRED:
+                p.append(_problem(name, line, col, "empty value"))
+            continue
+        value = _to_float(raw)
+        if value is None or not math.isfinite(value):
+            p.append(_problem(name, line, col, f"{raw!r} is not a finite number"))
+            continue
+        unit = units.get(col)
+        if unit == "?":
+            continue
+        if unit is not None:
+            value = _row_value(rec, col, raw, unit, kind, name, line, p)
+            if value is None:
+                continue
+        rec[col] = value
+
+
+def _row_sources(rec: dict, cells, columns, sources, curated: bool, name: str, line: int, p: list[str]) -> None:
+    """The source key and resolved citation of each value present in one record."""
+    row_source = _cell(cells, columns, "source")
+    for src_col in _SOURCE_COLUMNS:
+        props = [
+            c for c, (s, _, _) in _NUMERIC.items() if s == src_col and not math.isnan(rec[c])
+        ]
+        own = _cell(cells, columns, src_col)
+        rec[f"{src_col}_key"] = ""
+        rec[src_col] = ""
+        if not props:
+            continue
+        if own:
+            if own in MARKERS or own in sources:
+                rec[f"{src_col}_key"] = own
+                rec[src_col] = _resolve(own, sources)
+            else:
+                p.append(
+                    _problem(
+                        name,
+                        line,
+                        src_col,
+                        f"unknown source key {own!r}; use a key of sources.csv"
+                        f"{'' if curated else ' or of the companion .sources.csv'}, a marker "
+                        f"({', '.join(MARKERS)}) or put free text in the 'source' column",
+                    )
+                )
+        elif row_source:
+            rec[f"{src_col}_key"] = (
+                row_source if (row_source in MARKERS or row_source in sources) else ""
+            )
+            rec[src_col] = (
+                _resolve(row_source, sources) if rec[f"{src_col}_key"] else row_source
+            )
+        else:
+            p.append(_problem(name, line, src_col, f"missing source for {', '.join(props)}"))
+
+
+def _parse_materials(
+    path: Path, sources: Mapping[str, Mapping[str, str]], curated: bool
+) -> tuple[list[dict], list[str]]:
+    """Parse and check a materials file; return (records in SI, problems)."""
+    table = _read_csv(path)
+    if not table.header:
+        return [], table.problems
+    name = table.path
+    valid = _CURATED_COLUMNS if curated else _VALID_COLUMNS
+    columns = _split_header(table, valid)
+    required = _CURATED_COLUMNS if curated else _USER_REQUIRED
+    for col in required:
+        if col not in columns:
+            table.problems.append(
+                _problem(name, table.header_line, col, "required column is missing")
+            )
+    units = _header_units(table, columns)
 
     records: list[dict] = []
     seen: dict[str, int] = {}
@@ -657,119 +798,9 @@ def _parse_materials(
         rec: dict = {"origin": "curated" if curated else name, "_line": line}
         for col in _TEXT:
             rec[col] = _cell(cells, columns, col)
-        rid = rec["id"]
-        if not rid:
-            p.append(_problem(name, line, "id", "empty id"))
-        elif not _ID_PATTERN.match(rid):
-            p.append(
-                _problem(
-                    name,
-                    line,
-                    "id",
-                    f"id {rid!r} is not snake_case (a-z, 0-9, _; starting with a letter)",
-                )
-            )
-        elif rid in seen:
-            p.append(
-                _problem(name, line, "id", f"duplicate id {rid!r} (first on line {seen[rid]})")
-            )
-        else:
-            seen[rid] = line
-        if "name" in columns and not rec["name"]:
-            p.append(_problem(name, line, "name", "empty name"))
-        family: str | None = rec["family"]
-        if family not in FAMILIES:
-            if "family" in columns:
-                p.append(
-                    _problem(
-                        name,
-                        line,
-                        "family",
-                        f"unknown family {family!r}; valid families: {', '.join(FAMILIES)}",
-                    )
-                )
-            family = None
-        row_source = _cell(cells, columns, "source")
-
-        # numeric values
-        for col, (_, _, kind) in _NUMERIC.items():
-            raw = _cell(cells, columns, col)
-            rec[col] = math.nan
-            if col not in columns:
-                continue
-            if raw == "":
-                if curated and col not in _OPTIONAL_CURATED:
-                    p.append(_problem(name, line, col, "empty value"))
-                elif not curated and col in _USER_REQUIRED:
-                    p.append(_problem(name, line, col, "empty value"))
-                continue
-            value = _to_float(raw)
-            if value is None or not math.isfinite(value):
-                p.append(_problem(name, line, col, f"{raw!r} is not a finite number"))
-                continue
-            unit = units.get(col)
-            if unit == "?":
-                continue
-            if unit is not None:
-                try:
-                    if kind == "cost":
-                        basis = rec["cost_basis"]
-                        ckind = {"per_kg": "cost_per_mass", "per_m3": "cost_per_volume"}.get(basis)
-                        if ckind is None:
-                            p.append(
-                                _problem(
-                                    name,
-                                    line,
-                                    "cost_basis",
-                                    f"{basis!r} is not a cost basis; valid: {', '.join(_COST_BASES)}",
-                                )
-                            )
-                            continue
-                        value = _convert(value, unit, ckind, col, rec["currency"] or None)
-                    else:
-                        value = _convert(value, unit, kind, col)
-                except ValueError as exc:
-                    p.append(_problem(name, line, col, f"cannot convert {raw} {unit}: {exc}"))
-                    continue
-                if col.startswith("t_service"):
-                    value -= 273.15  # the service limits are kept in °C until the end
-            rec[col] = value
-
-        # sources of the values present
-        for src_col in _SOURCE_COLUMNS:
-            props = [
-                c for c, (s, _, _) in _NUMERIC.items() if s == src_col and not math.isnan(rec[c])
-            ]
-            own = _cell(cells, columns, src_col)
-            rec[f"{src_col}_key"] = ""
-            rec[src_col] = ""
-            if not props:
-                continue
-            if own:
-                if own in MARKERS or own in sources:
-                    rec[f"{src_col}_key"] = own
-                    rec[src_col] = _resolve(own, sources)
-                else:
-                    p.append(
-                        _problem(
-                            name,
-                            line,
-                            src_col,
-                            f"unknown source key {own!r}; use a key of sources.csv"
-                            f"{'' if curated else ' or of the companion .sources.csv'}, a marker "
-                            f"({', '.join(MARKERS)}) or put free text in the 'source' column",
-                        )
-                    )
-            elif row_source:
-                rec[f"{src_col}_key"] = (
-                    row_source if (row_source in MARKERS or row_source in sources) else ""
-                )
-                rec[src_col] = (
-                    _resolve(row_source, sources) if rec[f"{src_col}_key"] else row_source
-                )
-            else:
-                p.append(_problem(name, line, src_col, f"missing source for {', '.join(props)}"))
-
+        family = _row_text(rec, columns, seen, name, line, p)
+        _row_numbers(rec, cells, columns, units, curated, name, line, p)
+        _row_sources(rec, cells, columns, sources, curated, name, line, p)
         _check_ranges(rec, family, name, line, p)
         records.append(rec)
     return records, table.problems
@@ -858,6 +889,8 @@ def _check_ranges(rec: dict, family: str | None, name: str, line: int, p: list[s
 
 
 def _frame(records: list[dict]) -> pd.DataFrame:
+    import pandas as pd
+
     frame = pd.DataFrame.from_records(records)
     frame = frame.drop(columns="_line").set_index("id")
     frame["family_label"] = frame["family"].map(FAMILIES)

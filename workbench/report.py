@@ -18,7 +18,6 @@ import datetime as _dt
 import html
 import math
 import os
-import re
 import warnings
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass
@@ -43,6 +42,7 @@ from workbench.scenario import (
     study_from_scenario,
     study_kind,
 )
+from workbench.studies._chart_parts import _currency  # noqa: F401  (exports and review import it here)
 
 __all__ = [
     "GENERAL_CAUTIONS",
@@ -223,11 +223,11 @@ def rank_results(
             ok = results[c.quantity].astype(bool).to_numpy()
             for i in np.flatnonzero(~ok):
                 extra = ""
-                for col in _EXPLAIN.get(c.quantity, ()):
+                for col in kind.flag_reasons.get(c.quantity, ()):
                     if col in results and str(results[col].iloc[i]):
                         extra = f" ({results[col].iloc[i]})"
                         break
-                reasons[i].append(f"{_label(c.quantity)}: no{extra}")
+                reasons[i].append(f"{_label(c.quantity, kind)}: no{extra}")
         else:
             limit = constraint_limit(kind, c)
             values = _values(results, kind, c.quantity)
@@ -237,7 +237,7 @@ def rank_results(
             word = "above the maximum" if c.bound == "max" else "below the minimum"
             for i in np.flatnonzero(~ok):
                 reasons[i].append(
-                    f"{_label(c.quantity)} {_fmt(values[i], qkind, system, results)} {word} "
+                    f"{_label(c.quantity, kind)} {_fmt(values[i], qkind, system, results)} {word} "
                     f"{_fmt(limit, qkind, system, results)}"
                 )
         keep &= ok
@@ -247,7 +247,7 @@ def rank_results(
     )
     for j, q in enumerate(names):
         for i in np.flatnonzero(~np.isfinite(values[:, j])):
-            reasons[i].append(f"no value for {_label(q)}")
+            reasons[i].append(f"no value for {_label(q, kind)}")
             keep[i] = False
     table = pd.DataFrame(index=results.index.copy())
     for j, q in enumerate(names):
@@ -282,13 +282,6 @@ def rank_results(
     table.attrs["units"].update({"score": "-", "share_first": "-"})
     table.attrs["criteria"] = tuple(criteria)
     return table
-
-
-_EXPLAIN = {
-    "within_service_limits": ("service_problems",),
-    "passes": ("why_not",),
-}
-"""Yes/no columns -> text columns that say why a candidate fails them."""
 
 
 def _values(results: pd.DataFrame, kind: StudyKind, column: str) -> np.ndarray:
@@ -414,62 +407,28 @@ def engineering(value: float, sig: int = 3) -> str:
     return f"{m.rstrip('0').rstrip('.') if '.' in m else m}e{int(x)}"
 
 
-#: Readable names of the housing study's result columns (the unit is added beside them).
-_HOUSING_LABELS = {
-    "material": "Material",
-    "finish": "Finish",
-    "emissivity": "Emissivity of the outer finish",
-    "t_air_inside": "Inside air temperature",
-    "t_wall_inside": "Inner wall surface temperature",
-    "t_surface": "Mean surface temperature",
-    "t_hot_spot": "Hot-spot temperature",
-    "t_air_inside_degC": "Inside air temperature",
-    "t_surface_degC": "Mean surface temperature",
-    "t_hot_spot_degC": "Hot-spot temperature",
-    "hot_spot_rise": "Hot-spot rise above the inner wall",
-    "spreading_length": "Spreading length of the wall",
-    "biot_number": "Biot number of the wall",
-    "h_convection": "Outside convection coefficient",
-    "h_radiation": "Outside radiation coefficient",
-    "radiation_share": "Share of the heat radiated",
-    "dt_surface_d_emissivity": "Change of mean surface temperature per unit emissivity",
-    "mass": "Shell mass",
-    "cost": "Shell material cost",
-    "heat_capacity": "Heat capacity of shell and contents",
-    "t_surface_session_end": "Mean surface temperature at the end of the session",
-    "t_surface_session_end_degC": "Mean surface temperature at the end of the session",
-    "time_to_touch_limit": "Time for the mean surface to reach the touch limit",
-    "touch_class": "Touch class",
-    "touch_limit": "Touch limit",
-    "touch_limit_degC": "Touch limit",
-    "margin_surface": "Touch margin of the mean surface",
-    "margin_hot_spot": "Touch margin of the hot spot",
-    "passes": "Passes",
-    "why_not": "Why not",
-    "pareto": "Pareto-optimal",
-}
+#: Readable names of the ranking's own columns (every kind); a kind's ``column_labels`` add its own.
+_RANKING_LABELS = {"pareto": "Pareto-optimal"}
 
 
-def _label(col: str) -> str:
-    if col in _HOUSING_LABELS:
-        return _HOUSING_LABELS[col]
+def _label(col: str, kind: StudyKind | None = None) -> str:
+    """A readable column name: the kind's label, else derived from the column name.
+
+    Examples
+    --------
+    >>> _label("t_surface_inside"), _label("u_value"), _label("pareto")
+    ('Surface temperature inside', 'U-value', 'Pareto-optimal')
+    """
+    if kind is not None and col in kind.column_labels:
+        return kind.column_labels[col]
+    if col in _RANKING_LABELS:
+        return _RANKING_LABELS[col]
     if col.startswith("t_") and col not in ("t_surface_inside", "t_surface_outside"):
         col = col[2:] + "_temperature"
     text = col.replace("_", " ")
     for a, b in (("t surface", "surface temperature"), ("u value", "U-value"), ("degC", "°C")):
         text = text.replace(a, b)
     return text[:1].upper() + text[1:]
-
-
-def _currency(results: pd.DataFrame) -> str | None:
-    """The currency code of the cost columns (None when unknown or mixed)."""
-    found = set()
-    for col, unit in results.attrs.get("units", {}).items():
-        if col.startswith("cost") and isinstance(unit, str):
-            found |= {c for c in units.CURRENCIES if re.search(rf"(?<![A-Z]){c}(?![A-Z])", unit)}
-    if "currency" in results.columns:
-        found |= {c for c in results["currency"].dropna() if c in units.CURRENCIES}
-    return found.pop() if len(found) == 1 else None
 
 
 def _unit_label(qkind: str, system: str, results: pd.DataFrame) -> str:
@@ -509,7 +468,7 @@ def display_frame(
         qkind = kind.column_kinds.get(col)
         if qkind is not None:
             vals = np.asarray(units.from_si(s.to_numpy(float), qkind, system), float).reshape(-1)
-            head = f"{_label(col)} [{_unit_label(qkind, system, results) or '–'}]"
+            head = f"{_label(col, kind)} [{_unit_label(qkind, system, results) or '–'}]"
             if text:
                 out[head] = [
                     f"{v:.1f}" if qkind == "temperature" and math.isfinite(v) else engineering(v)
@@ -520,16 +479,16 @@ def display_frame(
         elif s.dtype == bool or (
             s.dtype == object and s.map(lambda x: isinstance(x, bool)).all() and len(s)
         ):
-            out[_label(col)] = s.map(lambda b: "yes" if b else "no") if text else s
+            out[_label(col, kind)] = s.map(lambda b: "yes" if b else "no") if text else s
         elif pd.api.types.is_numeric_dtype(s):
             unit = str(si_units.get(col, "")).lstrip("/")
-            head = f"{_label(col)} [{unit}]" if unit and unit != "-" else _label(col)
+            head = f"{_label(col, kind)} [{unit}]" if unit and unit != "-" else _label(col, kind)
             if col == "rank":
                 out[head] = [("" if pd.isna(v) else str(int(v))) for v in s] if text else s
             else:
                 out[head] = [engineering(v) for v in s] if text else s
         else:
-            out[_label(col)] = s.astype(object).where(s.notna(), "")
+            out[_label(col, kind)] = s.astype(object).where(s.notna(), "")
     out.index.name = frame.index.name or "candidate"
     return out
 
@@ -700,13 +659,13 @@ def _material_name(materials, mid: str) -> str:
 
 def _criteria_frame(ev: Evaluation) -> pd.DataFrame:
     rows = [
-        {"criterion": _label(c.quantity), "direction": c.direction, "weight": engineering(c.weight)}
+        {"criterion": _label(c.quantity, ev.kind), "direction": c.direction, "weight": engineering(c.weight)}
         for c in ev.criteria
     ]
     for c in ev.scenario.constraints:
         rows.append(
             {
-                "criterion": _label(c.quantity),
+                "criterion": _label(c.quantity, ev.kind),
                 "direction": "must be yes" if c.bound == "require" else c.bound,
                 "weight": "hard limit" + ("" if c.bound == "require" else f": {c.limit}"),
             }
@@ -763,8 +722,8 @@ def _charts(ev: Evaluation) -> list:
                     textposition="top center",
                     customdata=[[hover_src[k]] for k in i],
                     hovertemplate=(
-                        f"%{{text}}<br>{_e(_label(qx))}: %{{x:.3g}} {_e(ux)}"
-                        f"<br>{_e(_label(qy))}: %{{y:.3g}} {_e(uy)}"
+                        f"%{{text}}<br>{_e(_label(qx, ev.kind))}: %{{x:.3g}} {_e(ux)}"
+                        f"<br>{_e(_label(qy, ev.kind))}: %{{y:.3g}} {_e(uy)}"
                         "<br>k source: %{customdata[0]}<extra></extra>"
                     ),
                 )
@@ -787,9 +746,9 @@ def _charts(ev: Evaluation) -> list:
                 )
             )
         fig.update_layout(
-            title=f"Trade-off: {_label(qx)} against {_label(qy)}",
-            xaxis_title=f"{_label(qx)} [{ux or '–'}]",
-            yaxis_title=f"{_label(qy)} [{uy or '–'}]",
+            title=f"Trade-off: {_label(qx, ev.kind)} against {_label(qy, ev.kind)}",
+            xaxis_title=f"{_label(qx, ev.kind)} [{ux or '–'}]",
+            yaxis_title=f"{_label(qy, ev.kind)} [{uy or '–'}]",
         )
         _log_if_spans(fig, x, y)
         figs.append(fig)
@@ -816,8 +775,6 @@ def _charts(ev: Evaluation) -> list:
         figs.append(fig)
     if ev.kind.charts is not None:
         figs += ev.kind.charts(ev)
-    elif ev.kind.name in _KIND_CHARTS:
-        figs += _KIND_CHARTS[ev.kind.name](ev)
     for f in figs:
         f.update_layout(
             template="plotly_white",
@@ -826,221 +783,6 @@ def _charts(ev: Evaluation) -> list:
             font=dict(family="system-ui, sans-serif", size=12),
         )
     return figs
-
-
-def _focus(ev: Evaluation) -> str | None:
-    """The candidate to draw in single-candidate charts: the chosen, else the best ranked."""
-    if ev.chosen:
-        return ev.chosen
-    best = ev.ranking["rank"]
-    best = best[best == 1]
-    return str(best.index[0]) if len(best) else None
-
-
-def _wall_charts(ev: Evaluation) -> list:
-    import plotly.graph_objects as go
-
-    study, r, system = ev.study, ev.results, ev.system
-    figs = []
-    design = r["sized_thickness"].to_numpy(float)
-    top = max(0.3, 1.5 * float(np.nanmax(design))) if np.isfinite(design).any() else 0.3
-    thk = np.linspace(0.002, top, 150)
-    q = np.abs(study.flux(thk))
-    x_unit = units.display_unit("thickness", system)
-    y_unit = units.display_unit("heat_flux", system)
-    xs = np.asarray(units.from_si(thk, "thickness", system), float)
-    fig = go.Figure()
-    for i, name in enumerate(study.names):
-        width = 4 if name == ev.chosen else 2
-        fig.add_trace(
-            go.Scatter(
-                x=xs,
-                y=np.asarray(units.from_si(q[i], "heat_flux", system), float),
-                mode="lines",
-                name=name,
-                line=dict(width=width),
-                hovertemplate=(
-                    f"{_e(name)}<br>%{{x:.3g}} {_e(x_unit)}: %{{y:.3g}} {_e(y_unit)}"
-                    f"<br>k source: {_e(r['conductivity_source'].iloc[i])}<extra></extra>"
-                ),
-            )
-        )
-    fig.add_trace(
-        go.Scatter(
-            x=np.asarray(units.from_si(design, "thickness", system), float).reshape(-1),
-            y=np.asarray(
-                units.from_si(np.abs(r["heat_flux"].to_numpy(float)), "heat_flux", system), float
-            ).reshape(-1),
-            mode="markers",
-            name="design point",
-            text=study.names,
-            marker=dict(symbol="diamond", size=11, color="#1d2433"),
-            hovertemplate=f"design point of %{{text}}<br>%{{x:.3g}} {_e(x_unit)}, "
-            f"%{{y:.3g}} {_e(y_unit)}<extra></extra>",
-        )
-    )
-    mf = study.max_flux()
-    if mf is not None:
-        # a trace, not add_hline(annotation_text=...): on a log axis plotly places that
-        # annotation at 10**y and stretches the axis to it
-        budget_y = float(units.from_si(float(mf), "heat_flux", system))
-        fig.add_trace(
-            go.Scatter(
-                x=[xs[0], xs[-1]],
-                y=[budget_y, budget_y],
-                mode="lines",
-                name="heat budget",
-                line=dict(dash="dash", color="#1d2433", width=1.5),
-                hovertemplate=f"heat budget %{{y:.3g}} {_e(y_unit)}<extra></extra>",
-            )
-        )
-    fig.update_layout(
-        title="Heat flux against the thickness of the sized layer",
-        xaxis_title=units.axis_label("thickness", system, "Sized-layer thickness"),
-        yaxis_title=units.axis_label("heat_flux", system, "Heat flux"),
-        yaxis_type="log",
-    )
-    figs.append(fig)
-    focus = _focus(ev)
-    if focus is not None:
-        prof = study.temperature_profile(focus)
-        fig = go.Figure(
-            go.Scatter(
-                x=np.asarray(units.from_si(prof["position"].to_numpy(float), "thickness", system)),
-                y=np.asarray(
-                    units.from_si(prof["temperature"].to_numpy(float), "temperature", system)
-                ),
-                mode="lines+markers",
-                text=list(prof["where"]),
-                line=dict(color="#d9952b", width=3),
-                hovertemplate=f"%{{text}}<br>%{{x:.3g}} {_e(x_unit)}: %{{y:.1f}} "
-                f"{_e(units.display_unit('temperature', system))}<extra></extra>",
-            )
-        )
-        fig.update_layout(
-            title=f"Temperatures through {focus}"
-            + (" (chosen)" if focus == ev.chosen else " (best ranked)"),
-            xaxis_title=units.axis_label("thickness", system, "Position from inside"),
-            yaxis_title=units.axis_label("temperature", system),
-        )
-        figs.append(fig)
-    return figs
-
-
-def _shipper_charts(ev: Evaluation) -> list:
-    from workbench.studies.shipper import cost_figure, hold_figure, trace_figure
-
-    figs = []
-    currency = _currency(ev.results) or "EUR"
-    fig = cost_figure(ev.raw, currency=currency, highlight=ev.chosen)
-    fig.update_layout(title="Landed cost per shipment against insulation thickness")
-    figs.append(fig)
-    focus = _focus(ev)
-    r = ev.results
-    if focus is not None and focus in r.index and bool(r.loc[focus, "meets_target"]):
-        run = ev.study.design_run(focus, float(r.loc[focus, "thickness"]))
-        figs.append(
-            hold_figure(
-                run,
-                ev.study.t_payload_min,
-                ev.study.t_payload_max,
-                title=f"Hold of {focus} at its cheapest thickness",
-            )
-        )
-        trace = ev.study.trace([(focus, float(r.loc[focus, "thickness"]))])
-        figs.append(trace_figure(trace, system=ev.system,
-                                 title=f"Temperatures over the trip: {focus} at its cheapest thickness"))
-    return figs
-
-
-def _housing_charts(ev: Evaluation) -> list:
-    import plotly.graph_objects as go
-
-    study, system = ev.study, ev.system
-    t_unit = units.display_unit("temperature", system)
-    figs = []
-    sweep = study.emissivity_sweep(np.linspace(0.05, 0.95, 19))
-    fig = go.Figure()
-    for name, grp in sweep.groupby("candidate", sort=False):
-        fig.add_trace(
-            go.Scatter(
-                x=grp["emissivity"],
-                y=units.from_si(grp["t_surface"].to_numpy(float), "temperature", system),
-                mode="lines",
-                name=str(name),
-                line=dict(width=4 if name == ev.chosen else 2),
-                hovertemplate=f"{_e(name)}<br>ε %{{x:.2f}}: %{{y:.1f}} {_e(t_unit)}<extra></extra>",
-            )
-        )
-    r = ev.results
-    fig.add_trace(
-        go.Scatter(
-            x=r["emissivity"],
-            y=units.from_si(r["t_surface"].to_numpy(float), "temperature", system),
-            mode="markers",
-            name="design point",
-            text=[str(i) for i in r.index],
-            marker=dict(symbol="diamond", size=11, color="#1d2433"),
-            hovertemplate=f"%{{text}}<br>ε %{{x:.2f}}: %{{y:.1f}} {_e(t_unit)}<extra></extra>",
-        )
-    )
-    lim = r["touch_limit"].to_numpy(float)
-    if np.isfinite(lim).any():
-        fig.add_hline(
-            y=float(units.from_si(float(np.nanmin(lim)), "temperature", system)),
-            line_dash="dash",
-            annotation_text="lowest touch limit in use",
-        )
-    fig.update_layout(
-        title="Mean surface temperature against the emissivity of the finish",
-        xaxis_title="Emissivity [–]",
-        yaxis_title=units.axis_label("temperature", system, "Surface temperature"),
-    )
-    figs.append(fig)
-    p = float(study.power)
-    powers = np.linspace(0.0, max(2.0 * p, 1.0), 21)
-    ps = study.power_sweep(powers)
-    fig = go.Figure()
-    for name, grp in ps.groupby("candidate", sort=False):
-        fig.add_trace(
-            go.Scatter(
-                x=units.from_si(grp["power"].to_numpy(float), "power", system),
-                y=units.from_si(grp["t_hot_spot"].to_numpy(float), "temperature", system),
-                mode="lines",
-                name=str(name),
-                line=dict(width=4 if name == ev.chosen else 2),
-                hovertemplate=f"{_e(name)}<br>%{{x:.3g}} {_e(units.display_unit('power', system))}: "
-                f"%{{y:.1f}} {_e(t_unit)}<extra></extra>",
-            )
-        )
-    fig.add_vline(
-        x=float(units.from_si(p, "power", system)), line_dash="dot", annotation_text="design power"
-    )
-    fig.update_layout(
-        title="Hottest outside point against the dissipated power",
-        xaxis_title=units.axis_label("power", system, "Dissipated power"),
-        yaxis_title=units.axis_label("temperature", system, "Hot-spot temperature"),
-    )
-    figs.append(fig)
-    from workbench.studies.housing import warm_up_figure
-
-    warm = study.warm_up_frame()
-    minutes = float(study.session_duration) / 60.0
-    contact = float(study.contact_duration)
-    contact_text = f"{contact / 60.0:.3g} min" if contact >= 60.0 else f"{contact:.3g} s"
-    figs.append(
-        warm_up_figure(
-            warm,
-            system=system,
-            title=f"Mean surface temperature over a {minutes:.3g}-min use session against the "
-            f"touch limit for a {contact_text} contact",
-            chosen=ev.chosen,
-        )
-    )
-    return figs
-
-
-_KIND_CHARTS = {"wall": _wall_charts, "shipper": _shipper_charts, "housing": _housing_charts}
 
 
 def _shown(values: np.ndarray, column: str, ev: Evaluation) -> tuple[np.ndarray, str]:

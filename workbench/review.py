@@ -660,13 +660,13 @@ def _diff_results(ev_old, ev_new, kind, system, tolerance, changes) -> None:
                 rel = f" ({100 * (vb - va) / abs(va):+.1f} %)"
             else:
                 rel = ""
-            changes.append(Change("results", f"{name}: {col}", ta, tb, f"{name}: {column_label(col)} {ta} → {tb}{rel}"))
+            changes.append(Change("results", f"{name}: {col}", ta, tb, f"{name}: {column_label(col, kind)} {ta} → {tb}{rel}"))
         for col in flags:
             fa, fb = bool(a.loc[name, col]), bool(b.loc[name, col])
             if fa != fb:
                 ta, tb = ("yes" if fa else "no"), ("yes" if fb else "no")
                 changes.append(Change("results", f"{name}: {col}", ta, tb,
-                                      f"{name}: {column_label(col)} {ta} → {tb}"))
+                                      f"{name}: {column_label(col, kind)} {ta} → {tb}"))
 
 
 def _decision_value(d, name: str) -> str:

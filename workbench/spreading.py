@@ -32,7 +32,6 @@ from dataclasses import dataclass
 
 import numpy as np
 from numpy.typing import ArrayLike
-from scipy import special
 
 from workbench._checks import (
     ValidityWarning,
@@ -283,6 +282,8 @@ def _j1_roots(n: int) -> np.ndarray:
     roots = _ROOTS.get("j1")
     if roots is None or roots.size < n:
         size = max(n, 2 * (0 if roots is None else roots.size), SERIES_TERMS_MIN)
+        from scipy import special  # imported on first use: keeps `import workbench` light
+
         roots = special.jn_zeros(1, size)
         _ROOTS["j1"] = roots
     return roots[:n]
@@ -297,6 +298,8 @@ def _series(eps, tau, bi, n_terms: int):
     second as the mean of its partial sums over the last half of the terms), and their
     estimated truncation errors.
     """
+    from scipy import special  # imported on first use: keeps `import workbench` light
+
     lam = _j1_roots(n_terms)
     s_avg = np.empty(eps.size)
     s_max = np.empty(eps.size)

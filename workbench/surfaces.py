@@ -29,7 +29,6 @@ from dataclasses import dataclass
 from types import MappingProxyType
 
 import numpy as np
-from scipy import constants
 
 from workbench._checks import (
     ValidityWarning,
@@ -87,8 +86,19 @@ SURFACE_RESISTANCES = MappingProxyType(
 # internal convective coefficients h_ci by heat-flow direction [W/(m²·K)].
 _H_CI = MappingProxyType({"up": 5.0, "horizontal": 2.5, "down": 0.7})
 
-_SIGMA = constants.Stefan_Boltzmann  # CODATA, W/(m²·K⁴)
-_G = constants.g  # standard gravity, m/s²
+#: Stefan–Boltzmann constant σ = 2π⁵k⁴/(15h³c²). [W/(m²·K⁴)]
+#: CODATA 2018 recommended values (``codata-2018``): 5.670 374 419... × 10⁻⁸,
+#: exact in the 2019 SI (derived from the exact h, k and c); here to double
+#: precision. Written out so that importing the core does not import scipy;
+#: tests/test_import_light.py checks it against ``scipy.constants``.
+STEFAN_BOLTZMANN: float = 5.6703744191844314e-8
+
+#: Standard acceleration of gravity g_n. [m/s²]
+#: 9.80665 exactly, by definition (3rd CGPM, 1901, from memory); CODATA 2018 lists it.
+STANDARD_GRAVITY: float = 9.80665
+
+_SIGMA = STEFAN_BOLTZMANN
+_G = STANDARD_GRAVITY
 
 
 def _choice(name: str, value: str, valid: tuple[str, ...]) -> str:
@@ -217,14 +227,14 @@ def blackbody_radiation_coefficient(t_mean: ArrayLike) -> float | np.ndarray:
     -----
     .. math:: h_{r0} = 4 \\sigma T_m^3
 
-    with σ the Stefan–Boltzmann constant (CODATA, ``scipy.constants``). The
+    with σ the Stefan–Boltzmann constant (CODATA 2018, :data:`STEFAN_BOLTZMANN`). The
     exact linearisation (:func:`radiation_coefficient`) differs from ε·h_r0
     by a factor :math:`1 + (\\Delta T / 2T_m)^2`.
 
     References
     ----------
     ``iso6946-2017``: ISO 6946:2017, Annex C (and Annex D for air layers),
-    from memory; ``codata-2018``: CODATA 2018 via scipy.constants.
+    from memory; ``codata-2018``: CODATA 2018 recommended values (σ).
 
     Examples
     --------

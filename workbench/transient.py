@@ -785,6 +785,321 @@ def _check_state(h_new, tp_new, cs, t_end, shape) -> None:
         )
 
 
+@dataclass(frozen=True)
+class _HoldInputs:
+    """Checked inputs of :func:`simulate_hold`, broadcast and flattened to one axis.
+
+    Temperatures [K], conductances [W/K], mass [kg], latent heat [J/kg],
+    specific heats [J/(kg·K)], heat capacity [J/K]; ``shape`` is the variants'
+    broadcast shape, ``n_steps`` the number of time steps, ``record_every`` the
+    stride of the stored times.
+    """
+
+    shape: tuple[int, ...]
+    duration: float
+    time_step: float
+    n_steps: int
+    record_every: int
+    ua: np.ndarray
+    m: np.ndarray
+    lat: np.ndarray
+    tpc: np.ndarray
+    cs: np.ndarray
+    cl: np.ndarray
+    cp: np.ndarray
+    g: np.ndarray
+    phi: np.ndarray
+    tc0: np.ndarray
+    tp0: np.ndarray
+    tmin: np.ndarray
+    tmax: np.ndarray
+    ua_w_c: np.ndarray  # share of the wall reaching the coolant, φ·UA [W/K]
+    ua_w_p: np.ndarray  # share reaching the payload node, (1 − φ)·UA [W/K]
+
+
+def _specific_heats(tpc, lat, specific_heat_solid, specific_heat_liquid):
+    """Coolant specific heats [J/(kg·K)]: the given values, else the coolants table's."""
+    cs_table = cl_table = None
+    if specific_heat_solid is None or specific_heat_liquid is None:
+        from workbench.coolants import specific_heats_for
+
+        cs_table, cl_table = specific_heats_for(tpc, lat)
+    cs = (
+        cs_table
+        if specific_heat_solid is None
+        else _values("specific_heat_solid", specific_heat_solid, "J/(kg·K)", nonnegative)
+    )
+    cl = (
+        cl_table
+        if specific_heat_liquid is None
+        else _values("specific_heat_liquid", specific_heat_liquid, "J/(kg·K)", nonnegative)
+    )
+    return cs, cl
+
+
+def _hold_steps(n: int, dur: float, dt: float, record_every: int, limits: tuple[int, int, int]) -> int:
+    """Time steps of a run; work beyond the limits is refused before any allocation."""
+    max_steps, max_cells, max_stored = limits
+    steps_f = dur / dt
+    if not steps_f - 1e-9 <= max_steps:
+        raise ValueError(
+            f"time_step: duration {dur:g} s / time_step {dt:g} s = {steps_f:,.0f} time steps asked; "
+            f"the limit is {max_steps:,} per variant (MAX_STEPS). Coarsen: a time_step of at least "
+            f"{dur / max_steps:.4g} s or a shorter duration; or raise the limit on purpose with "
+            "max_steps=..."
+        )
+    steps_asked = max(1, math.ceil(steps_f - 1e-9))
+    if n * steps_asked > max_cells:
+        raise ValueError(
+            f"conductance, coolant_mass, ...: {n:,} variants × {steps_asked:,} time steps = "
+            f"{n * steps_asked:,} cells asked; the limit is {max_cells:,} (MAX_CELLS). Split the "
+            "variants over several calls, use a larger time_step or a shorter duration; or raise "
+            "the limit on purpose with max_cells=..."
+        )
+    stored_asked = n * (steps_asked // record_every + 2)
+    if stored_asked > max_stored:
+        raise ValueError(
+            f"record_every: {n:,} variants × {steps_asked // record_every + 2:,} stored times = "
+            f"{stored_asked:,} values per series; the limit is {max_stored:,} (MAX_STORED). Store "
+            f"fewer times (record_every={max(1, -(-stored_asked // max_stored)) * record_every} or "
+            "more; events are still found on every step) or raise the limit on purpose with "
+            "max_stored=..."
+        )
+    return steps_asked
+
+
+def _check_hold_states(p: _HoldInputs) -> None:
+    """Refuse a payload range that is empty and a start the coolant's phases cannot hold."""
+    if np.any(p.tmin >= p.tmax):
+        raise ValueError(
+            "t_payload_min, t_payload_max: the payload range is inverted or empty (min must be below max) [K]"
+        )
+    if np.any((p.tc0 < p.tpc) & (p.cs == 0)):
+        raise ValueError(
+            "t_coolant_start: below the phase change needs specific_heat_solid > 0 [J/(kg·K)]"
+        )
+    if np.any((p.tc0 > p.tpc) & (p.cl == 0)):
+        raise ValueError(
+            "t_coolant_start: above the phase change needs specific_heat_liquid > 0 [J/(kg·K)]"
+        )
+
+
+def _hold_inputs(
+    conductance, coolant_mass, latent_heat, t_phase_change, duration, time_step,
+    specific_heat_solid, specific_heat_liquid, payload_heat_capacity, coupling_conductance,
+    coolant_wall_fraction, t_coolant_start, t_payload_start, t_payload_min, t_payload_max,
+    record_every, limits,
+) -> _HoldInputs:
+    """Check, broadcast and flatten the inputs of :func:`simulate_hold` (its argument names)."""
+    dur = _scalar("duration", duration, "s")
+    dt = _scalar("time_step", time_step, "s")
+    record_every = _count("record_every", record_every, "store every n-th step")
+    limits = (
+        _count("max_steps", limits[0], "time steps per variant"),
+        _count("max_cells", limits[1], "variants × time steps"),
+        _count("max_stored", limits[2], "variants × stored times"),
+    )
+    ua = _values("conductance", conductance, "W/K")
+    m = _values("coolant_mass", coolant_mass, "kg")
+    lat = _values("latent_heat", latent_heat, "J/kg")
+    tpc = _temperature("t_phase_change", t_phase_change)
+    cs, cl = _specific_heats(tpc, lat, specific_heat_solid, specific_heat_liquid)
+    cp_ = _values("payload_heat_capacity", payload_heat_capacity, "J/K")
+    g = _values("coupling_conductance", coupling_conductance, "W/K")
+    phi = in_range("coolant_wall_fraction", coolant_wall_fraction, 0.0, 1.0, "-")
+    if phi.size == 0:
+        raise ValueError("coolant_wall_fraction: empty; give at least one value [-]")
+    tc0 = tpc if t_coolant_start is None else _temperature("t_coolant_start", t_coolant_start)
+    tp0 = tpc if t_payload_start is None else _temperature("t_payload_start", t_payload_start)
+    tmin = _limit("t_payload_min", t_payload_min, -np.inf)
+    tmax = _limit("t_payload_max", t_payload_max, np.inf)
+    arrays = broadcast(
+        conductance=ua,
+        coolant_mass=m,
+        latent_heat=lat,
+        t_phase_change=tpc,
+        specific_heat_solid=cs,
+        specific_heat_liquid=cl,
+        payload_heat_capacity=cp_,
+        coupling_conductance=g,
+        coolant_wall_fraction=phi,
+        t_coolant_start=tc0,
+        t_payload_start=tp0,
+        t_payload_min=tmin,
+        t_payload_max=tmax,
+    )
+    shape = arrays[0].shape
+    n_steps = _hold_steps(int(np.prod(shape, dtype=np.int64)), dur, dt, record_every, limits)
+    ua, m, lat, tpc, cs, cl, cp_, g, phi, tc0, tp0, tmin, tmax = (
+        np.array(a, float).ravel() for a in arrays
+    )
+    p = _HoldInputs(
+        shape, dur, dt, n_steps, record_every, ua, m, lat, tpc, cs, cl, cp_, g, phi, tc0, tp0, tmin, tmax,
+        ua_w_c=phi * ua, ua_w_p=(1.0 - phi) * ua,
+    )
+    _check_hold_states(p)
+    return p
+
+
+def _coolant_temperature(p: _HoldInputs, h: np.ndarray, tp: np.ndarray) -> np.ndarray:
+    """Coolant temperature [K] from its specific enthalpy ``h`` [J/kg] (payload's once gone)."""
+    with np.errstate(divide="ignore", invalid="ignore"):
+        below = p.tpc + h / np.where(p.cs > 0, p.cs, 1.0)
+        above = p.tpc + (h - p.lat) / np.where(p.cl > 0, p.cl, 1.0)
+    return np.where(h < 0, below, np.where(h > p.lat, np.where(p.cl > 0, above, tp), p.tpc))
+
+
+class _HoldSeries:
+    """The stored time series of :func:`simulate_hold`: every ``record_every``-th step and the last."""
+
+    def __init__(self, p: _HoldInputs, h: np.ndarray, tp: np.ndarray):
+        self.index = list(range(0, p.n_steps + 1, p.record_every))
+        if self.index[-1] != p.n_steps:
+            self.index.append(p.n_steps)
+        n, n_rec = p.ua.size, len(self.index)
+        self.tp, self.tc, self.fraction, self.heat_in, self.energy = (
+            np.empty((n, n_rec)) for _ in range(5)
+        )
+        self.p, self.h_start, self.tp_start, self.pos = p, h.copy(), tp.copy(), 0
+
+    def store_if_due(self, step_end: int, h, tp, tc, heat_in) -> None:
+        """Store the state at the end of step ``step_end`` (0: the start) if it is a stored time."""
+        if self.pos >= len(self.index) or self.index[self.pos] != step_end:
+            return
+        j, p = self.pos, self.p
+        self.tp[:, j] = tp
+        self.tc[:, j] = tc
+        self.fraction[:, j] = 1.0 - np.clip(h / p.lat, 0.0, 1.0)
+        self.heat_in[:, j] = heat_in
+        self.energy[:, j] = p.cp * (tp - self.tp_start) + p.m * (h - self.h_start)
+        self.pos += 1
+
+
+class _HoldEvents:
+    """First coolant-spent and out-of-range times of each variant, and the end reasons."""
+
+    def __init__(self, p: _HoldInputs, h: np.ndarray, tp: np.ndarray):
+        self.t_spent = np.where(h >= p.lat, 0.0, np.inf)
+        self.t_out = np.where((tp < p.tmin) | (tp > p.tmax), 0.0, np.inf)
+        self.why_out = np.where(tp > p.tmax, 1, np.where(tp < p.tmin, 2, 0))
+
+    def update(self, p: _HoldInputs, h, h_new, tp, tp1, t0: float, step: float) -> None:
+        """Events inside the step from ``t0`` [s] of length ``step`` [s], linearly interpolated."""
+        crossed = np.isinf(self.t_spent) & (h < p.lat) & (h_new >= p.lat)
+        with np.errstate(divide="ignore", invalid="ignore"):
+            frac = np.clip((p.lat - h) / (h_new - h), 0.0, 1.0)
+        self.t_spent = np.where(crossed, t0 + frac * step, self.t_spent)
+        hot = np.isinf(self.t_out) & (tp1 > p.tmax)
+        cold = np.isinf(self.t_out) & (tp1 < p.tmin)
+        with np.errstate(divide="ignore", invalid="ignore"):
+            f_hot = np.clip((p.tmax - tp) / (tp1 - tp), 0.0, 1.0)
+            f_cold = np.clip((p.tmin - tp) / (tp1 - tp), 0.0, 1.0)
+        self.t_out = np.where(
+            hot, t0 + f_hot * step, np.where(cold, t0 + f_cold * step, self.t_out)
+        )
+        self.why_out = np.where(hot, 1, np.where(cold, 2, self.why_out))
+
+    def end(self, duration: float) -> tuple[np.ndarray, np.ndarray]:
+        """Hold time [s] (the earlier event, capped at ``duration``) and the reason of each variant."""
+        hold = np.minimum(np.minimum(self.t_spent, self.t_out), duration)
+        reason_idx = np.where(
+            self.t_spent <= self.t_out, np.where(np.isfinite(self.t_spent), 0, 3), self.why_out
+        )
+        return hold, np.array(REASONS, dtype=object)[reason_idx]
+
+
+def _sensible_step(sens, c_c, a, b, g_eff, wp, wc, cp_, ta, tp, tc, step):
+    """Exact two-node step while the coolant is sensible (solid below or liquid above).
+
+    Solves :math:`\\dot x = M x + f` for ``x = (T_p, T_c)`` over the step:
+    :math:`x(t) = x^* + e^{Mt}(x_0 - x^*)`, with the step means from
+    :math:`M^{-1}(e^{Mt} - I)`. Returns end temperatures, coolant heat [J/kg·kg]
+    and step-mean temperatures ``(tp1, q_c, tpbar, tcbar)`` where ``sens``.
+    """
+    with np.errstate(over="ignore", invalid="ignore", divide="ignore"):
+        c_cs = np.where(sens, c_c, 1.0)
+        m11, m12 = -a / cp_, g_eff / cp_
+        m21, m22 = g_eff / c_cs, -b / c_cs
+        det = m11 * m22 - m12 * m21
+        f1 = wp * ta / cp_
+        f2 = wc * ta / c_cs
+        # steady state x* = -M^-1 f
+        xs1 = -(m22 * f1 - m12 * f2) / det
+        xs2 = -(-m21 * f1 + m11 * f2) / det
+        y1, y2 = tp - xs1, tc - xs2
+        s = 0.5 * (m11 + m22)
+        q = np.sqrt(np.maximum(s * s - det, 0.0))
+        l1, l2 = s + q, s - q
+        e1, e2 = np.exp(l1 * step), np.exp(l2 * step)
+        small = q * step < 1e-8
+        qs = np.where(small, 1.0, q)
+        sh = np.where(small, step * np.exp(s * step), (e1 - e2) / (2 * qs))  # e^{st} sinh(qt)/q
+        ch = 0.5 * (e1 + e2)  # e^{st} cosh(qt)
+        # E = e^{M t} = (ch - s*sh) I + sh M
+        d0 = ch - s * sh
+        e11, e12, e21, e22 = d0 + sh * m11, sh * m12, sh * m21, d0 + sh * m22
+        z1 = e11 * y1 + e12 * y2
+        z2 = e21 * y1 + e22 * y2
+        # integral of y: M^-1 (E - I) y
+        w1, w2 = z1 - y1, z2 - y2
+        iy1 = (m22 * w1 - m12 * w2) / det
+        iy2 = (-m21 * w1 + m11 * w2) / det
+        tp1_s = xs1 + z1
+        tc1_s = xs2 + z2
+        tpbar_s = xs1 + iy1 / step
+        tcbar_s = xs2 + iy2 / step
+        q_c_s = c_cs * (tc1_s - tc)
+    return tp1_s, q_c_s, tpbar_s, tcbar_s
+
+
+def _two_node_step(p: _HoldInputs, h, tp, tc, ta: float, step: float):
+    """One time step of the two-node balance (see :func:`simulate_hold`, Notes).
+
+    Returns the payload temperature at the step end [K], the heat into the
+    coolant [J] and the heat through the wall [J] over the step.
+    """
+    latent = (h >= 0) & (h <= p.lat)
+    gone = (h > p.lat) & (p.cl == 0)
+    c_c = p.m * np.where(h < 0, p.cs, p.cl)
+    # coolant gone (sublimed): the payload node alone takes the whole wall
+    g_eff = np.where(gone, 0.0, p.g)
+    wc = np.where(gone, 0.0, p.ua_w_c)
+    wp = np.where(gone, p.ua, p.ua_w_p)
+    a = wp + g_eff
+    b = wc + g_eff
+    # (1) coolant at fixed temperature (phase change, or gone): payload alone, exact
+    tc_fix = np.where(gone, tp, p.tpc)
+    teq = (wp * ta + g_eff * tc_fix) / a
+    decay = np.exp(-a * step / p.cp)
+    tp1_fix = teq + (tp - teq) * decay
+    tpbar_fix = teq + (tp - teq) * (1.0 - decay) * p.cp / (a * step)
+    q_c_fix = wc * (ta - tc_fix) * step + g_eff * (tpbar_fix - tc_fix) * step
+    # (2) sensible coolant: exact two-node solution
+    sens = ~(latent | gone)
+    if np.any(sens):
+        tp1_s, q_c_s, tpbar_s, tcbar_s = _sensible_step(
+            sens, c_c, a, b, g_eff, wp, wc, p.cp, ta, tp, tc, step
+        )
+        tp1 = np.where(sens, tp1_s, tp1_fix)
+        q_c = np.where(sens, q_c_s, q_c_fix)
+        tpbar = np.where(sens, tpbar_s, tpbar_fix)
+        tcbar = np.where(sens, tcbar_s, tc_fix)
+    else:
+        tp1, q_c, tpbar, tcbar = tp1_fix, q_c_fix, tpbar_fix, tc_fix
+    # heat through the wall from the step-mean node temperatures (booked
+    # independently of the stored energy, so a conservation check can fail)
+    q_wall = (wp * (ta - tpbar) + wc * (ta - tcbar)) * step
+    return tp1, q_c, q_wall
+
+
+def _poll(k: int, n_steps: int, t_now: float, duration: float, progress, cancel) -> None:
+    """Report progress and honour a cancel request between steps."""
+    if cancel is not None and cancel():
+        raise Cancelled(f"hold-time run cancelled at {t_now / 3600:.1f} h of {duration / 3600:.1f} h")
+    if progress is not None:
+        progress(k / n_steps)
+
+
 def simulate_hold(
     conductance: ArrayLike,
     t_ambient: AmbientLike,
@@ -921,260 +1236,62 @@ def simulate_hold(
     ['coolant spent', 'coolant spent']
     """
     times_p, temps_p = ambient_profile(t_ambient)
-    dur = _scalar("duration", duration, "s")
-    dt = _scalar("time_step", time_step, "s")
-    record_every = _count("record_every", record_every, "store every n-th step")
-    max_steps = _count("max_steps", max_steps, "time steps per variant")
-    max_cells = _count("max_cells", max_cells, "variants × time steps")
-    max_stored = _count("max_stored", max_stored, "variants × stored times")
-    ua = _values("conductance", conductance, "W/K")
-    m = _values("coolant_mass", coolant_mass, "kg")
-    lat = _values("latent_heat", latent_heat, "J/kg")
-    tpc = _temperature("t_phase_change", t_phase_change)
-    cs_table = cl_table = None
-    if specific_heat_solid is None or specific_heat_liquid is None:
-        from workbench.coolants import specific_heats_for
-
-        cs_table, cl_table = specific_heats_for(tpc, lat)
-    cs = (
-        cs_table
-        if specific_heat_solid is None
-        else _values("specific_heat_solid", specific_heat_solid, "J/(kg·K)", nonnegative)
+    p = _hold_inputs(
+        conductance, coolant_mass, latent_heat, t_phase_change, duration, time_step,
+        specific_heat_solid, specific_heat_liquid, payload_heat_capacity, coupling_conductance,
+        coolant_wall_fraction, t_coolant_start, t_payload_start, t_payload_min, t_payload_max,
+        record_every, (max_steps, max_cells, max_stored),
     )
-    cl = (
-        cl_table
-        if specific_heat_liquid is None
-        else _values("specific_heat_liquid", specific_heat_liquid, "J/(kg·K)", nonnegative)
-    )
-    cp_ = _values("payload_heat_capacity", payload_heat_capacity, "J/K")
-    g = _values("coupling_conductance", coupling_conductance, "W/K")
-    phi = in_range("coolant_wall_fraction", coolant_wall_fraction, 0.0, 1.0, "-")
-    if phi.size == 0:
-        raise ValueError("coolant_wall_fraction: empty; give at least one value [-]")
-    tc0 = tpc if t_coolant_start is None else _temperature("t_coolant_start", t_coolant_start)
-    tp0 = tpc if t_payload_start is None else _temperature("t_payload_start", t_payload_start)
-    tmin = _limit("t_payload_min", t_payload_min, -np.inf)
-    tmax = _limit("t_payload_max", t_payload_max, np.inf)
-    arrays = broadcast(
-        conductance=ua,
-        coolant_mass=m,
-        latent_heat=lat,
-        t_phase_change=tpc,
-        specific_heat_solid=cs,
-        specific_heat_liquid=cl,
-        payload_heat_capacity=cp_,
-        coupling_conductance=g,
-        coolant_wall_fraction=phi,
-        t_coolant_start=tc0,
-        t_payload_start=tp0,
-        t_payload_min=tmin,
-        t_payload_max=tmax,
-    )
-    shape = arrays[0].shape
-    n = int(np.prod(shape, dtype=np.int64))
-    # work limits, before any allocation sized by them
-    steps_f = dur / dt
-    if not steps_f - 1e-9 <= max_steps:
-        raise ValueError(
-            f"time_step: duration {dur:g} s / time_step {dt:g} s = {steps_f:,.0f} time steps asked; "
-            f"the limit is {max_steps:,} per variant (MAX_STEPS). Coarsen: a time_step of at least "
-            f"{dur / max_steps:.4g} s or a shorter duration; or raise the limit on purpose with "
-            "max_steps=..."
-        )
-    steps_asked = max(1, math.ceil(steps_f - 1e-9))
-    if n * steps_asked > max_cells:
-        raise ValueError(
-            f"conductance, coolant_mass, ...: {n:,} variants × {steps_asked:,} time steps = "
-            f"{n * steps_asked:,} cells asked; the limit is {max_cells:,} (MAX_CELLS). Split the "
-            "variants over several calls, use a larger time_step or a shorter duration; or raise "
-            "the limit on purpose with max_cells=..."
-        )
-    stored_asked = n * (steps_asked // record_every + 2)
-    if stored_asked > max_stored:
-        raise ValueError(
-            f"record_every: {n:,} variants × {steps_asked // record_every + 2:,} stored times = "
-            f"{stored_asked:,} values per series; the limit is {max_stored:,} (MAX_STORED). Store "
-            f"fewer times (record_every={max(1, -(-stored_asked // max_stored)) * record_every} or "
-            "more; events are still found on every step) or raise the limit on purpose with "
-            "max_stored=..."
-        )
-    ua, m, lat, tpc, cs, cl, cp_, g, phi, tc0, tp0, tmin, tmax = (
-        np.array(a, float).ravel() for a in arrays
-    )
-    if np.any(tmin >= tmax):
-        raise ValueError(
-            "t_payload_min, t_payload_max: the payload range is inverted or empty (min must be below max) [K]"
-        )
-    if np.any((tc0 < tpc) & (cs == 0)):
-        raise ValueError(
-            "t_coolant_start: below the phase change needs specific_heat_solid > 0 [J/(kg·K)]"
-        )
-    if np.any((tc0 > tpc) & (cl == 0)):
-        raise ValueError(
-            "t_coolant_start: above the phase change needs specific_heat_liquid > 0 [J/(kg·K)]"
-        )
-
-    n_steps = steps_asked
-    edges = np.minimum(np.arange(n_steps + 1) * dt, dur)
+    n_steps = p.n_steps
+    edges = np.minimum(np.arange(n_steps + 1) * p.time_step, p.duration)
     integ = _integral(times_p, temps_p, edges)
     ta_steps = np.diff(integ) / np.diff(edges)
 
-    h = np.where(tc0 < tpc, cs * (tc0 - tpc), np.where(tc0 > tpc, lat + cl * (tc0 - tpc), 0.0))
-    tp = tp0.copy()
-    n = ua.size
-    rec_idx = list(range(0, n_steps + 1, record_every))
-    if rec_idx[-1] != n_steps:
-        rec_idx.append(n_steps)
-    n_rec = len(rec_idx)
-    out_tp = np.empty((n, n_rec))
-    out_tc = np.empty((n, n_rec))
-    out_f = np.empty((n, n_rec))
-    out_q = np.empty((n, n_rec))
-    out_e = np.empty((n, n_rec))
-    h_start, tp_start = h.copy(), tp.copy()
-    heat_in = np.zeros(n)
-
-    def coolant_temp(hh):
-        with np.errstate(divide="ignore", invalid="ignore"):
-            below = tpc + hh / np.where(cs > 0, cs, 1.0)
-            above = tpc + (hh - lat) / np.where(cl > 0, cl, 1.0)
-        return np.where(hh < 0, below, np.where(hh > lat, np.where(cl > 0, above, tp), tpc))
-
-    def store(j, tc_now):
-        out_tp[:, j] = tp
-        out_tc[:, j] = tc_now
-        out_f[:, j] = 1.0 - np.clip(h / lat, 0.0, 1.0)
-        out_q[:, j] = heat_in
-        out_e[:, j] = cp_ * (tp - tp_start) + m * (h - h_start)
-
-    t_spent = np.where(h >= lat, 0.0, np.inf)
-    t_out = np.where((tp < tmin) | (tp > tmax), 0.0, np.inf)
-    why_out = np.where(tp > tmax, 1, np.where(tp < tmin, 2, 0))
-    rec_pos = 0
-    tc = coolant_temp(h)
-    store(0, tc)
-    rec_pos = 1
-    ua_w_c = phi * ua
-    ua_w_p = (1.0 - phi) * ua
+    h = np.where(
+        p.tc0 < p.tpc,
+        p.cs * (p.tc0 - p.tpc),
+        np.where(p.tc0 > p.tpc, p.lat + p.cl * (p.tc0 - p.tpc), 0.0),
+    )
+    tp = p.tp0.copy()
+    series = _HoldSeries(p, h, tp)
+    events = _HoldEvents(p, h, tp)
+    heat_in = np.zeros(p.ua.size)
+    tc = _coolant_temperature(p, h, tp)
+    series.store_if_due(0, h, tp, tc, heat_in)
     every = max(1, n_steps // 50)
     for k in range(n_steps):
         if k % every == 0 and k:
-            if cancel is not None and cancel():
-                raise Cancelled(
-                    f"hold-time run cancelled at {edges[k] / 3600:.1f} h of {dur / 3600:.1f} h"
-                )
-            if progress is not None:
-                progress(k / n_steps)
+            _poll(k, n_steps, edges[k], p.duration, progress, cancel)
         step = edges[k + 1] - edges[k]
-        ta = ta_steps[k]
-        latent = (h >= 0) & (h <= lat)
-        gone = (h > lat) & (cl == 0)
-        c_c = m * np.where(h < 0, cs, cl)
-        # coolant gone (sublimed): the payload node alone takes the whole wall
-        g_eff = np.where(gone, 0.0, g)
-        wc = np.where(gone, 0.0, ua_w_c)
-        wp = np.where(gone, ua, ua_w_p)
-        a = wp + g_eff
-        b = wc + g_eff
-        # (1) coolant at fixed temperature (phase change, or gone): payload alone, exact
-        tc_fix = np.where(gone, tp, tpc)
-        teq = (wp * ta + g_eff * tc_fix) / a
-        decay = np.exp(-a * step / cp_)
-        tp1_fix = teq + (tp - teq) * decay
-        tpbar_fix = teq + (tp - teq) * (1.0 - decay) * cp_ / (a * step)
-        q_c_fix = wc * (ta - tc_fix) * step + g_eff * (tpbar_fix - tc_fix) * step
-        # (2) sensible coolant: exact two-node solution
-        sens = ~(latent | gone)
-        if np.any(sens):
-            with np.errstate(over="ignore", invalid="ignore", divide="ignore"):
-                c_cs = np.where(sens, c_c, 1.0)
-                m11, m12 = -a / cp_, g_eff / cp_
-                m21, m22 = g_eff / c_cs, -b / c_cs
-                det = m11 * m22 - m12 * m21
-                f1 = wp * ta / cp_
-                f2 = wc * ta / c_cs
-                # steady state x* = -M^-1 f
-                xs1 = -(m22 * f1 - m12 * f2) / det
-                xs2 = -(-m21 * f1 + m11 * f2) / det
-                y1, y2 = tp - xs1, tc - xs2
-                s = 0.5 * (m11 + m22)
-                q = np.sqrt(np.maximum(s * s - det, 0.0))
-                l1, l2 = s + q, s - q
-                e1, e2 = np.exp(l1 * step), np.exp(l2 * step)
-                small = q * step < 1e-8
-                qs = np.where(small, 1.0, q)
-                sh = np.where(
-                    small, step * np.exp(s * step), (e1 - e2) / (2 * qs)
-                )  # e^{st} sinh(qt)/q
-                ch = 0.5 * (e1 + e2)  # e^{st} cosh(qt)
-                # E = e^{M t} = (ch - s*sh) I + sh M
-                d0 = ch - s * sh
-                e11, e12, e21, e22 = d0 + sh * m11, sh * m12, sh * m21, d0 + sh * m22
-                z1 = e11 * y1 + e12 * y2
-                z2 = e21 * y1 + e22 * y2
-                # integral of y: M^-1 (E - I) y
-                w1, w2 = z1 - y1, z2 - y2
-                iy1 = (m22 * w1 - m12 * w2) / det
-                iy2 = (-m21 * w1 + m11 * w2) / det
-                tp1_s = xs1 + z1
-                tc1_s = xs2 + z2
-                tpbar_s = xs1 + iy1 / step
-                tcbar_s = xs2 + iy2 / step
-                q_c_s = c_cs * (tc1_s - tc)
-                tp1 = np.where(sens, tp1_s, tp1_fix)
-                q_c = np.where(sens, q_c_s, q_c_fix)
-                tpbar = np.where(sens, tpbar_s, tpbar_fix)
-                tcbar = np.where(sens, tcbar_s, tc_fix)
-        else:
-            tp1, q_c, tpbar, tcbar = tp1_fix, q_c_fix, tpbar_fix, tc_fix
-        # heat through the wall from the step-mean node temperatures (booked
-        # independently of the stored energy, so a conservation check can fail)
-        q_wall = (wp * (ta - tpbar) + wc * (ta - tcbar)) * step
-        h_new = h + q_c / m
-        _check_state(h_new, tp1, cs, edges[k + 1], shape)
-        # events
-        crossed = np.isinf(t_spent) & (h < lat) & (h_new >= lat)
-        with np.errstate(divide="ignore", invalid="ignore"):
-            frac = np.clip((lat - h) / (h_new - h), 0.0, 1.0)
-        t_spent = np.where(crossed, edges[k] + frac * step, t_spent)
-        hot = np.isinf(t_out) & (tp1 > tmax)
-        cold = np.isinf(t_out) & (tp1 < tmin)
-        with np.errstate(divide="ignore", invalid="ignore"):
-            f_hot = np.clip((tmax - tp) / (tp1 - tp), 0.0, 1.0)
-            f_cold = np.clip((tmin - tp) / (tp1 - tp), 0.0, 1.0)
-        t_out = np.where(
-            hot, edges[k] + f_hot * step, np.where(cold, edges[k] + f_cold * step, t_out)
-        )
-        why_out = np.where(hot, 1, np.where(cold, 2, why_out))
+        tp1, q_c, q_wall = _two_node_step(p, h, tp, tc, ta_steps[k], step)
+        h_new = h + q_c / p.m
+        _check_state(h_new, tp1, p.cs, edges[k + 1], p.shape)
+        events.update(p, h, h_new, tp, tp1, edges[k], step)
         h, tp = h_new, tp1
         heat_in = heat_in + q_wall
-        tc = coolant_temp(h)
-        if rec_pos < n_rec and rec_idx[rec_pos] == k + 1:
-            store(rec_pos, tc)
-            rec_pos += 1
+        tc = _coolant_temperature(p, h, tp)
+        series.store_if_due(k + 1, h, tp, tc, heat_in)
 
-    hold = np.minimum(np.minimum(t_spent, t_out), dur)
-    reason_idx = np.where(t_spent <= t_out, np.where(np.isfinite(t_spent), 0, 3), why_out)
-    reason = np.array(REASONS, dtype=object)[reason_idx]
+    hold, reason = events.end(p.duration)
 
     def shp(x):
-        return x.reshape(shape + x.shape[1:])
+        return x.reshape(p.shape + x.shape[1:])
 
     if progress is not None:
         progress(1.0)
     return HoldSimulation(
-        times=edges[rec_idx],
-        ambient=np.concatenate([[temps_p[0]], ta_steps])[rec_idx],
-        payload_temperature=shp(out_tp),
-        coolant_temperature=shp(out_tc),
-        coolant_fraction_left=shp(out_f),
-        heat_in=shp(out_q),
-        stored_energy=shp(out_e),
-        time_coolant_spent=shp(t_spent),
-        time_out_of_range=shp(t_out),
+        times=edges[series.index],
+        ambient=np.concatenate([[temps_p[0]], ta_steps])[series.index],
+        payload_temperature=shp(series.tp),
+        coolant_temperature=shp(series.tc),
+        coolant_fraction_left=shp(series.fraction),
+        heat_in=shp(series.heat_in),
+        stored_energy=shp(series.energy),
+        time_coolant_spent=shp(events.t_spent),
+        time_out_of_range=shp(events.t_out),
         hold_time=shp(hold),
         reason=shp(reason),
-        duration=dur,
+        duration=p.duration,
     )
 
 

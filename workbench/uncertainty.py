@@ -136,6 +136,31 @@ class MonteCarloResult:
     prob_meets_se: np.ndarray | None
 
 
+def _candidate_values(nominal, tolerance) -> tuple[dict, dict, int]:
+    """Nominal values and tolerances per property, each broadcast to ``(n_cand,)``.
+
+    Each is a scalar or one value per candidate; a tolerance needs a nominal > 0.
+    """
+    nom = {k: np.atleast_1d(finite(f"nominal[{k!r}]", v)) for k, v in nominal.items()}
+    for k, v in nom.items():
+        if v.ndim != 1 or v.shape[0] == 0:
+            raise ValueError(f"nominal[{k!r}]: expected a scalar or one value per candidate, got shape {v.shape}")
+    n_cand = max(v.shape[0] for v in nom.values())
+    for k, v in nom.items():
+        if v.shape[0] not in (1, n_cand):
+            raise ValueError(f"nominal[{k!r}]: expected a scalar or {n_cand} values, got shape {v.shape}")
+    nom = {k: np.broadcast_to(v, (n_cand,)) for k, v in nom.items()}
+    tol = {}
+    for k, v in tolerance.items():
+        t = nonnegative(f"tolerance[{k!r}]", v)
+        if t.ndim > 1 or t.size not in (1, n_cand):
+            raise ValueError(f"tolerance[{k!r}]: expected a scalar or {n_cand} values, got shape {t.shape}")
+        tol[k] = np.broadcast_to(t, (n_cand,))
+        if np.any((tol[k] > 0) & (nom[k] <= 0)):
+            raise ValueError(f"nominal[{k!r}]: must be > 0 where a tolerance is given")
+    return nom, tol, n_cand
+
+
 def monte_carlo(
     model: Callable[[dict[str, np.ndarray]], np.ndarray],
     nominal: Mapping[str, object],
@@ -253,23 +278,7 @@ def monte_carlo(
         gen = rng
     else:
         gen = np.random.default_rng(integer("rng", rng, minimum=0))
-    nom = {k: np.atleast_1d(finite(f"nominal[{k!r}]", v)) for k, v in nominal.items()}
-    for k, v in nom.items():
-        if v.ndim != 1 or v.shape[0] == 0:
-            raise ValueError(f"nominal[{k!r}]: expected a scalar or one value per candidate, got shape {v.shape}")
-    n_cand = max(v.shape[0] for v in nom.values())
-    for k, v in nom.items():
-        if v.shape[0] not in (1, n_cand):
-            raise ValueError(f"nominal[{k!r}]: expected a scalar or {n_cand} values, got shape {v.shape}")
-    nom = {k: np.broadcast_to(v, (n_cand,)) for k, v in nom.items()}
-    tol = {}
-    for k, v in tolerance.items():
-        t = nonnegative(f"tolerance[{k!r}]", v)
-        if t.ndim > 1 or t.size not in (1, n_cand):
-            raise ValueError(f"tolerance[{k!r}]: expected a scalar or {n_cand} values, got shape {t.shape}")
-        tol[k] = np.broadcast_to(t, (n_cand,))
-        if np.any((tol[k] > 0) & (nom[k] <= 0)):
-            raise ValueError(f"nominal[{k!r}]: must be > 0 where a tolerance is given")
+    nom, tol, n_cand = _candidate_values(nominal, tolerance)
 
     stored: np.ndarray | None = None
     best_counts = None

@@ -47,20 +47,25 @@ References
 
 from __future__ import annotations
 
+import functools
 import math
 import re
 from collections.abc import Mapping
 from dataclasses import dataclass
 from types import MappingProxyType
+from typing import TYPE_CHECKING, Any
 
 import numpy as np
-import pint
 
 from workbench._checks import scalar_or_array
 
+if TYPE_CHECKING:
+    import pint
+
 __all__ = [
-    "ureg",
-    "Q_",
+    "registry",
+    "ureg",  # noqa: F822 (module __getattr__, created on first use)
+    "Q_",  # noqa: F822 (module __getattr__, created on first use)
     "UnitError",
     "SYSTEMS",
     "CURRENCIES",
@@ -83,14 +88,48 @@ __all__ = [
 # ---------------------------------------------------------------------------
 # The registry
 # ---------------------------------------------------------------------------
-# ``on_redefinition="ignore"`` lets the definitions below replace pint's ISO Btu;
-# no other module defines units, so nothing else can be redefined by accident.
-ureg = pint.UnitRegistry(autoconvert_offset_to_baseunit=True, on_redefinition="ignore")
-ureg.define("british_thermal_unit = international_british_thermal_unit = Btu = BTU")
-ureg.define("iso_british_thermal_unit = 1055.056 * joule = Btu_iso")
-ureg.define("currency = [currency]")
-pint.set_application_registry(ureg)
-Q_ = ureg.Quantity
+# The registry is created on first use (``registry()``, or the module attributes
+# ``ureg`` and ``Q_``), so ``import workbench`` does not pay for importing pint
+# and parsing its definitions file. It is still one instance for the process.
+@functools.lru_cache(maxsize=1)
+def registry() -> pint.UnitRegistry:
+    """The project's single pint unit registry, created on the first call.
+
+    ``on_redefinition="ignore"`` lets the definitions below replace pint's ISO
+    Btu; no other module defines units, so nothing else can be redefined by
+    accident. The registry is also made pint's application registry.
+
+    Returns
+    -------
+    pint.UnitRegistry
+        The same object on every call; ``units.ureg`` and ``units.Q_`` (the
+        registry's ``Quantity``) resolve to it.
+
+    Examples
+    --------
+    >>> registry() is registry()
+    True
+    >>> registry().Quantity(1, "Btu").m_as("J")
+    1055.05585262
+    """
+    import pint
+
+    ureg = pint.UnitRegistry(autoconvert_offset_to_baseunit=True, on_redefinition="ignore")
+    ureg.define("british_thermal_unit = international_british_thermal_unit = Btu = BTU")
+    ureg.define("iso_british_thermal_unit = 1055.056 * joule = Btu_iso")
+    ureg.define("currency = [currency]")
+    pint.set_application_registry(ureg)
+    return ureg
+
+
+def __getattr__(name: str) -> Any:
+    """``ureg`` and ``Q_``: the registry and its ``Quantity``, created on first use (PEP 562)."""
+    if name == "ureg":
+        return registry()
+    if name == "Q_":
+        return registry().Quantity
+    raise AttributeError(f"module {__name__!r} has no attribute {name!r}")
+
 
 SYSTEMS: tuple[str, ...] = ("SI", "US")
 """Display systems: ``"SI"`` and ``"US"`` (US customary)."""
@@ -164,7 +203,7 @@ class Kind:
     @property
     def dimensionality(self) -> pint.util.UnitsContainer:
         """Pint dimensionality of the kind, e.g. ``[length]``."""
-        return ureg.get_dimensionality(self.si_unit)
+        return registry().get_dimensionality(self.si_unit)
 
     @property
     def is_cost(self) -> bool:
@@ -581,7 +620,7 @@ def _hint(unit: str, kind: Kind) -> str:
 
 def _convert(values, unit: str, target: str):
     """Magnitudes in pint ``unit`` expressed in pint ``target`` (offsets handled by pint)."""
-    return Q_(values, unit).m_as(target)
+    return registry().Quantity(values, unit).m_as(target)
 
 
 def _parse_unit(
@@ -611,7 +650,7 @@ def _parse_unit(
     parsed = False
     for candidate in _candidates(unit):
         try:
-            dims = ureg.get_dimensionality(candidate)
+            dims = registry().get_dimensionality(candidate)
         except Exception:  # pint raises many types (UndefinedUnitError, TokenError, ...)
             continue
         parsed = True

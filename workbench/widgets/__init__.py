@@ -7,11 +7,13 @@ imports it. Show :class:`Workbench` in one cell::
     Workbench()
 
 The shipper and housing studies have their own panels, :class:`ShipperPanel`
-and :class:`HousingPanel`, shown the same way.
+and :class:`HousingPanel`, shown the same way. :class:`JobChooser` is the web
+app's first page (``make app``): it offers the three jobs and opens scenario files.
 """
 
 from workbench.widgets.app import DEMO_CANDIDATES, DEMO_TITLE, Workbench, demo_study
 from workbench.widgets.housing_panel import HousingPanel
+from workbench.widgets.jobs import JobChooser
 from workbench.widgets.runner import Cancelled, TaskRunner, fine_sweep
 from workbench.widgets.shipper_panel import ShipperPanel
 
@@ -19,6 +21,7 @@ __all__ = [
     "Workbench",
     "ShipperPanel",
     "HousingPanel",
+    "JobChooser",
     "demo_study",
     "DEMO_CANDIDATES",
     "DEMO_TITLE",

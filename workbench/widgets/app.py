@@ -141,7 +141,16 @@ class Workbench(widgets.VBox):
 
     # ------------------------------------------------------------------ build
     def _build(self, title: str, demo: bool) -> None:
-        s = self.study
+        """Make every widget, lay them out (``self._children``) and connect their events."""
+        self._build_head(title, demo)
+        self._build_inputs()
+        self._build_charts()
+        self._build_tasks()
+        self._children = self._layout()
+        self._connect()
+
+    def _build_head(self, title: str, demo: bool) -> None:
+        """Title, SI/US switch, cautions, summary and status lines."""
         w = widgets.Layout
         self.header = widgets.HTML(self._header_html(title, demo), layout=w(flex="1 1 auto"))
         self.system_toggle = widgets.ToggleButtons(options=[("SI", "SI"), ("US customary", "US")], value=self.system,
@@ -155,6 +164,9 @@ class Workbench(widgets.VBox):
         self.status = widgets.HTML("")
         self.status.add_class("hw-status")
 
+    def _build_inputs(self) -> None:
+        """Candidate picker, condition fields, sliders and the view choices."""
+        s, w = self.study, widgets.Layout
         self.picker = CandidatePicker(s.materials, [c.name for c in s.candidates], self._set_candidates,
                                       on_file=self._load_file, system=self.system)
 
@@ -193,6 +205,8 @@ class Workbench(widgets.VBox):
         for d, css in ((self.crit_x, "hw-crit-x"), (self.crit_y, "hw-crit-y"), (self.crit_c, "hw-crit-c")):
             d.add_class(css)
 
+    def _build_charts(self) -> None:
+        """The four charts (clicks choose a candidate) and the results table."""
         self.flux_chart = FluxChart(width=420, height=320)
         self.req_chart = RequiredChart(width=420, height=320)
         self.trade_chart = TradeoffChart(width=420, height=320)
@@ -204,6 +218,10 @@ class Workbench(widgets.VBox):
         self.trade_chart.view.on_click(1, self._clicked_point)
 
         self.table = ResultsTable()
+
+    def _build_tasks(self) -> None:
+        """Buttons and result lines of the long computations, and their progress bar."""
+        w = widgets.Layout
         self.runner = TaskRunner("Progress")
         self.sweep_button = widgets.Button(description="Fine sweep of ΔT", icon="play",
                                            tooltip="Flux of every candidate over 400 ΔT × 400 thicknesses, in chunks",
@@ -225,6 +243,9 @@ class Workbench(widgets.VBox):
         self.stack_result = widgets.HTML("")
         self.stack_result.add_class("hw-stack-result")
 
+    def _layout(self) -> list:
+        """The workbench's rows: inputs beside the charts, then table, decision, files and tasks."""
+        w = widgets.Layout
         left = widgets.VBox([
             section("Candidates"), self.picker.box,
             section("Conditions"), self.f_inside.box, self.f_outside.box, self.f_area.box, self.budget_kind,
@@ -246,7 +267,7 @@ class Workbench(widgets.VBox):
             layout=w(grid_template_columns="repeat(auto-fit, 424px)", grid_gap="6px 6px", width="100%"),
         )
         right = widgets.VBox([self.summary, charts], layout=w(flex="1 1 430px", min_width="430px"))
-        self._children = [
+        return [
             widgets.HBox([self.header, self.system_toggle], layout=w(align_items="center")),
             self.cautions,
             self.status,
@@ -264,6 +285,8 @@ class Workbench(widgets.VBox):
             self.sweep_result, self.mc_result, self.stack_result,
         ]
 
+    def _connect(self) -> None:
+        """Connect the widgets' events to the handlers (each guarded: a problem shows, never raises)."""
         self.system_toggle.observe(lambda c: self._guard(self._set_system, c["new"]), "value")
         self.budget_kind.observe(lambda c: self._guard(self._set_budget_kind, c["old"], c["new"]), "value")
         self.s_thick.observe(lambda c: self._slider(self._set_thickness, c), "value")
@@ -564,7 +587,8 @@ class Workbench(widgets.VBox):
         if not isinstance(study, WallStudy):
             kind = getattr(scenario, "kind", type(study).__name__)
             raise ValueError(f"scenario: this workbench shows wall comparisons; a {kind} scenario "
-                             "opens in its own notebook or with `heatpath report`")
+                             "opens in its own panel (the app's first page: `make app`), its notebook, "
+                             "or with `heatpath report`")
         if study.budget is None:
             study.budget = HeatBudget("flux", 10.0)
         old = (self.study, self._chosen, self.system)

@@ -193,7 +193,8 @@ class HousingPanel(widgets.VBox):
             "Will the inside stay below its limit, and is the outside safe to touch? Inputs accept units "
             "(3 W, 35 °C, 95 °F, 10 min)."), layout=w(flex="1 1 auto"))
         self.system_toggle = widgets.ToggleButtons(options=[("SI", "SI"), ("US customary", "US")],
-                                                   value=sys_, style={"button_width": "112px"})
+                                                   value=sys_, style={"button_width": "112px"},
+                                                   layout=w(min_width="240px", flex="0 0 auto"))
         self.system_toggle.add_class("hw-housing-system")
         self.cautions = widgets.HTML("")
         self.cautions.add_class("hw-housing-cautions")
@@ -211,7 +212,7 @@ class HousingPanel(widgets.VBox):
             value=_preset_of(s.contact_duration), tooltips=[
                 "a tap", "a grab", "holding for a minute", "holding for 10 minutes",
                 "a whole working day (8 h and longer)"],
-            style={"button_width": "52px"}, layout=w(margin="0 0 4px 118px"))
+            style={"button_width": "62px"}, layout=w(margin="0 0 4px 118px"))
         self.contact_presets.add_class("hw-housing-contact-presets")
         self.f_session = UnitField("Use session", "time", "use-session duration", s.session_duration,
                                    lambda v: self._apply(session_duration=v), sys_, "hw-housing-session", unit="min")

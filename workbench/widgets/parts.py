@@ -93,7 +93,8 @@ def panel_children(header, toggle, cautions, status, inputs: list, input_css: st
     left = widgets.VBox(inputs, layout=w(width="350px", min_width="350px", margin="0 12px 0 0"))
     left.add_class("hw-panel")
     left.add_class(input_css)
-    charts = widgets.HBox(figures, layout=w(flex_flow="row wrap"))
+    # beside the inputs while 430 px are left; the charts wrap among themselves
+    charts = widgets.HBox(figures, layout=w(flex_flow="row wrap", flex="1 1 430px", min_width="430px"))
     return [
         widgets.HBox([header, toggle], layout=w(align_items="center")),
         cautions, status,

@@ -240,7 +240,8 @@ class ShipperPanel(widgets.VBox):
             "cost per shipment? Inputs accept units (48 h, 35 °C, 95 °F, 3 kg, 1.5 EUR/kg)."),
             layout=w(flex="1 1 auto"))
         self.system_toggle = widgets.ToggleButtons(options=[("SI", "SI"), ("US customary", "US")],
-                                                   value=self.system, style={"button_width": "112px"})
+                                                   value=self.system, style={"button_width": "112px"},
+                                                   layout=w(min_width="240px", flex="0 0 auto"))
         self.system_toggle.add_class("hw-shipper-system")
         self.cautions = widgets.HTML("")
         self.cautions.add_class("hw-shipper-cautions")

@@ -22,7 +22,6 @@ from __future__ import annotations
 
 import csv
 import re
-import textwrap
 import warnings
 from collections.abc import Sequence
 from dataclasses import dataclass
@@ -54,7 +53,6 @@ __all__ = [
     "TOUCH_RESULT_CAUTION",
     "finish_text_is_coating",
     "load_finishes",
-    "warm_up_figure",
 ]
 
 #: Said beside every touch result (tables, charts, notebook prints).
@@ -116,6 +114,39 @@ def _source_resolver():
         raise ValueError(f"source: unknown key {key!r}; add it to tables/sources.csv")
 
     return resolve
+
+
+def _results_units(cost_unit: str) -> dict[str, str]:
+    """Units of the numeric columns of :meth:`HousingStudy.results` (``cost`` in ``cost_unit``)."""
+    return {
+        "thickness": "m",
+        "emissivity": "-",
+        "conductivity": "W/(m·K)",
+        "t_air_inside": "K",
+        "t_wall_inside": "K",
+        "t_surface": "K",
+        "t_hot_spot": "K",
+        "t_air_inside_degC": "°C",
+        "t_surface_degC": "°C",
+        "t_hot_spot_degC": "°C",
+        "hot_spot_rise": "K",
+        "spreading_length": "m",
+        "biot_number": "-",
+        "h_convection": "W/(m²·K)",
+        "h_radiation": "W/(m²·K)",
+        "radiation_share": "-",
+        "dt_surface_d_emissivity": "K",
+        "mass": "kg",
+        "cost": cost_unit,
+        "heat_capacity": "J/K",
+        "t_surface_session_end": "K",
+        "t_surface_session_end_degC": "°C",
+        "time_to_touch_limit": "s",
+        "touch_limit": "K",
+        "touch_limit_degC": "°C",
+        "margin_surface": "K",
+        "margin_hot_spot": "K",
+    }
 
 
 def load_finishes(path=None) -> pd.DataFrame:
@@ -509,6 +540,49 @@ class HousingStudy:
             _emissivity_sensitivity(sol, self.length, self.width, self.height), (n,)
         ).copy()
 
+    def _touch_limit_rows(self, coated) -> tuple[list[str], np.ndarray, list[str]]:
+        """Touch class, touch limit [K] and readable source of the limit, per candidate."""
+        resolve = _source_resolver()
+        classes, lim, lim_src = [], [], []
+        for i, c in enumerate(self.candidates):
+            cls = touch_class(self.materials.loc[c.material, "family"], bool(coated[i]))
+            row = self.touch_limits.lookup(cls, self.contact_duration)
+            classes.append(cls)
+            lim.append(row.limit)
+            try:
+                lim_src.append(resolve(row.source))
+            except ValueError:
+                lim_src.append(row.source)  # a user's free-text source (e.g. a product standard)
+        return classes, np.array(lim), lim_src
+
+    def _why_not(self, t_air, ts, t_hot, lim, classes, t_service_max) -> list[str]:
+        """Why each candidate fails its inside-air, touch or service limit [K]; '' if none."""
+        reasons = []
+        for i, c in enumerate(self.candidates):
+            why = []
+            if self.t_inside_max is not None and t_air[i] > self.t_inside_max:
+                why.append(
+                    f"inside air {t_air[i] - _ZERO_C:.1f} °C above the limit "
+                    f"{self.t_inside_max - _ZERO_C:.1f} °C"
+                )
+            if ts[i] > lim[i]:
+                why.append(
+                    f"mean surface {ts[i] - _ZERO_C:.1f} °C above the touch limit "
+                    f"{lim[i] - _ZERO_C:.1f} °C ({classes[i]})"
+                )
+            if t_hot[i] > lim[i]:
+                why.append(
+                    f"hot spot {t_hot[i] - _ZERO_C:.1f} °C above the touch limit "
+                    f"{lim[i] - _ZERO_C:.1f} °C ({classes[i]})"
+                )
+            if t_hot[i] > t_service_max[i]:
+                why.append(
+                    f"hot spot {t_hot[i] - _ZERO_C:.1f} °C above the service limit of "
+                    f"{c.material} {t_service_max[i] - _ZERO_C:.0f} °C"
+                )
+            reasons.append("; ".join(why))
+        return reasons
+
     def results(self, warm: WarmUp | None = None) -> pd.DataFrame:
         """One row per candidate: temperatures, hot spot, touch margins, mass, cost, pass/fail.
 
@@ -539,18 +613,7 @@ class HousingStudy:
         n = len(self.candidates)
         ts = np.broadcast_to(sol.t_surface, (n,))
         t_hot = np.broadcast_to(hs.t_hot_spot, (n,)) if hs is not None else ts.copy()
-        resolve = _source_resolver()
-        classes, lim, lim_src = [], [], []
-        for i, c in enumerate(self.candidates):
-            cls = touch_class(m.loc[c.material, "family"], bool(a["coated"][i]))
-            row = self.touch_limits.lookup(cls, self.contact_duration)
-            classes.append(cls)
-            lim.append(row.limit)
-            try:
-                lim_src.append(resolve(row.source))
-            except ValueError:
-                lim_src.append(row.source)  # a user's free-text source (e.g. a product standard)
-        lim = np.array(lim)
+        classes, lim, lim_src = self._touch_limit_rows(a["coated"])
         # shell volume (all six faces, whatever the mounting)
         t = a["t"]
         v_out = self.length * self.width * self.height
@@ -565,30 +628,7 @@ class HousingStudy:
         )
         t_air = np.broadcast_to(sol.t_air_inside, (n,))
 
-        reasons = []
-        for i, c in enumerate(self.candidates):
-            why = []
-            if self.t_inside_max is not None and t_air[i] > self.t_inside_max:
-                why.append(
-                    f"inside air {t_air[i] - _ZERO_C:.1f} °C above the limit "
-                    f"{self.t_inside_max - _ZERO_C:.1f} °C"
-                )
-            if ts[i] > lim[i]:
-                why.append(
-                    f"mean surface {ts[i] - _ZERO_C:.1f} °C above the touch limit "
-                    f"{lim[i] - _ZERO_C:.1f} °C ({classes[i]})"
-                )
-            if t_hot[i] > lim[i]:
-                why.append(
-                    f"hot spot {t_hot[i] - _ZERO_C:.1f} °C above the touch limit "
-                    f"{lim[i] - _ZERO_C:.1f} °C ({classes[i]})"
-                )
-            if t_hot[i] > t_service_max[i]:
-                why.append(
-                    f"hot spot {t_hot[i] - _ZERO_C:.1f} °C above the service limit of "
-                    f"{c.material} {t_service_max[i] - _ZERO_C:.0f} °C"
-                )
-            reasons.append("; ".join(why))
+        reasons = self._why_not(t_air, ts, t_hot, lim, classes, t_service_max)
         passes = np.array([not r for r in reasons])
         objectives = np.column_stack([t_air, t_hot, mass, cost])
         front = pareto_front(objectives) if np.all(np.isfinite(objectives)) else np.zeros(n, bool)
@@ -651,35 +691,7 @@ class HousingStudy:
             }
         ).set_index("candidate")
         currency = sorted({str(c).strip() for c in m.get("currency", pd.Series(["EUR"])).dropna()} - {""})
-        frame.attrs["units"] = {
-            "thickness": "m",
-            "emissivity": "-",
-            "conductivity": "W/(m·K)",
-            "t_air_inside": "K",
-            "t_wall_inside": "K",
-            "t_surface": "K",
-            "t_hot_spot": "K",
-            "t_air_inside_degC": "°C",
-            "t_surface_degC": "°C",
-            "t_hot_spot_degC": "°C",
-            "hot_spot_rise": "K",
-            "spreading_length": "m",
-            "biot_number": "-",
-            "h_convection": "W/(m²·K)",
-            "h_radiation": "W/(m²·K)",
-            "radiation_share": "-",
-            "dt_surface_d_emissivity": "K",
-            "mass": "kg",
-            "cost": "/".join(currency) or "EUR",
-            "heat_capacity": "J/K",
-            "t_surface_session_end": "K",
-            "t_surface_session_end_degC": "°C",
-            "time_to_touch_limit": "s",
-            "touch_limit": "K",
-            "touch_limit_degC": "°C",
-            "margin_surface": "K",
-            "margin_hot_spot": "K",
-        }
+        frame.attrs["units"] = _results_units("/".join(currency) or "EUR")
         frame.attrs["cautions"] = HOUSING_CAUTIONS
         frame.attrs["assumptions"] = HOUSING_ASSUMPTIONS + WARM_UP_ASSUMPTIONS
         frame.attrs["session_duration"] = self.session_duration
@@ -776,129 +788,3 @@ class HousingStudy:
         frame.attrs["units"] = {"contact_duration": "s", "limit": "K", "limit_degC": "°C"}
         frame.attrs["cautions"] = (TOUCH_CAUTION,)
         return frame
-
-
-_WARM_COLOURS = (
-    "#1f6f8b", "#c2571a", "#4b8b3b", "#8e3b8b", "#b08900", "#3b5b8e", "#a23b3b", "#2f8f83",
-    "#6b6b6b", "#7a4f1d",
-)
-_LIMIT_DASHES = ("dash", "dot", "dashdot", "longdash", "longdashdot")
-
-
-def warm_up_traces(
-    frame: pd.DataFrame,
-    system: str = "SI",
-    title: str | None = None,
-    chosen: str | None = None,
-    colours: Sequence[str] | None = None,
-) -> tuple[list[dict], dict]:
-    """The traces (plain dicts) and layout of :func:`warm_up_figure`.
-
-    Kept apart so a live chart can update its traces in place instead of
-    building a new figure for every input change.
-    """
-    import html as _html
-
-    from workbench import units
-
-    units.check_system(system)
-    tu = units.display_unit("temperature", system)
-    names = list(dict.fromkeys(frame["candidate"]))
-    t_max = float(frame["time"].max()) if len(frame) else 0.0
-    per, tlab = (60.0, "min") if t_max <= 3 * 3600.0 else (3600.0, "h")
-    colours = list(colours) if colours is not None else list(_WARM_COLOURS)
-
-    def temp(x):
-        return np.asarray(units.from_si(np.asarray(x, float), "temperature", system), float)
-
-    reach = frame.attrs.get("time_to_touch_limit", {})
-    cand = frame["candidate"].to_numpy()
-    times = frame["time"].to_numpy(float)
-    surface = temp(frame["t_surface"].to_numpy(float))
-    traces = []
-    for i, name in enumerate(names):
-        sel = np.flatnonzero(cand == name)
-        # at most about 150 points per line on screen (the first and last always kept)
-        stride = max(1, -(-sel.size // 150))
-        sel = np.unique(np.r_[sel[::stride], sel[-1:]])
-        esc = _html.escape(str(name))
-        traces.append(dict(
-            type="scatter", x=times[sel] / per, y=surface[sel], name=str(name), mode="lines",
-            line={"color": colours[i % len(colours)], "width": 3.5 if name == chosen else 1.8},
-            hovertemplate=f"<b>{esc}</b><br>t = %{{x:.1f}} {tlab}<br>mean surface "
-            f"%{{y:.1f}} {tu}<extra></extra>",
-        ))
-    limits = frame.drop_duplicates("touch_class")[["touch_class", "touch_limit"]]
-    x_end = t_max / per
-    for j, (cls, lim) in enumerate(zip(limits["touch_class"], limits["touch_limit"], strict=True)):
-        y = float(temp(lim))
-        traces.append(dict(
-            type="scatter", x=[0.0, x_end], y=[y, y], name=f"touch limit, {cls} ({y:.1f} {tu})",
-            mode="lines",
-            line={"color": "#b5452b", "width": 1.6, "dash": _LIMIT_DASHES[j % len(_LIMIT_DASHES)]},
-            hovertemplate=f"touch limit, {_html.escape(str(cls))}: %{{y:.1f}} {tu}<extra></extra>",
-        ))
-    hits = [(n, reach.get(n, np.inf)) for n in names]
-    hits = [(n, t) for n, t in hits if np.isfinite(t)]
-    lim_of = dict(zip(frame["candidate"], frame["touch_limit"], strict=False))
-    traces.append(dict(
-        type="scatter",
-        x=[t / per for _, t in hits],
-        y=[float(temp(lim_of[n])) for n, _ in hits],
-        text=[str(n) for n, _ in hits],
-        name="reaches its touch limit",
-        mode="markers",
-        marker={"symbol": "x", "size": 10, "color": "#1d2433"},
-        hovertemplate=f"%{{text}}<br>reaches the touch limit at %{{x:.1f}} {tlab}"
-        f"<br>%{{y:.1f}} {tu}<extra></extra>",
-    ))
-    layout = dict(
-        title={"text": title or "Mean surface temperature over the use session", "x": 0.01,
-               "xanchor": "left", "font": {"size": 13}},
-        xaxis={"title": {"text": f"Time into the session [{tlab}]"}},
-        yaxis={"title": {"text": units.axis_label("temperature", system, name="Mean surface temperature")}},
-        legend={"font": {"size": 10}, "orientation": "h", "yanchor": "top", "y": -0.22, "x": 0},
-        margin={"l": 62, "r": 14, "t": 34, "b": 150},
-        annotations=[
-            {
-                "text": "<br>".join(textwrap.wrap(TOUCH_RESULT_CAUTION, 80)),
-                "xref": "paper", "yref": "paper", "x": 0, "y": -0.62, "showarrow": False,
-                "xanchor": "left", "align": "left", "font": {"size": 10, "color": "#8a3b24"},
-            }
-        ],
-    )
-    return traces, layout
-
-
-def warm_up_figure(
-    frame: pd.DataFrame,
-    system: str = "SI",
-    title: str | None = None,
-    chosen: str | None = None,
-    colours: Sequence[str] | None = None,
-):
-    """Mean surface temperature over the use session against the touch limit (plotly ``go.Figure``).
-
-    One line per candidate (the ``chosen`` one wider), one dashed line per
-    touch limit in use, and a marker where a candidate reaches its limit.
-    Time in minutes (hours for sessions over 3 h); temperature in °C (SI) or
-    °F (US). Hover shows the candidate, time and temperature with units. The
-    touch caution is printed under the plot.
-
-    Parameters
-    ----------
-    frame : DataFrame
-        :meth:`HousingStudy.warm_up_frame`.
-    system : {"SI", "US"}
-    title : str, optional
-    chosen : str, optional
-        Candidate drawn wider.
-    colours : sequence of str, optional
-        One colour per candidate, in order (default a built-in palette).
-    """
-    import plotly.graph_objects as go
-
-    traces, layout = warm_up_traces(frame, system, title, chosen, colours)
-    fig = go.Figure(data=[go.Scatter({k: v for k, v in t.items() if k != "type"}) for t in traces])
-    fig.update_layout(template="plotly_white", **layout)
-    return fig
