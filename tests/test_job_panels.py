@@ -533,3 +533,63 @@ def test_job_chooser_broken_toml_missing_file_and_folder_give_messages(tmp_path)
         assert j.current is None and j.panels["housing"] is shown
     with pytest.raises(ValueError, match=re.escape(f"{broken}:3")):
         j.open_file(broken)  # called from Python it raises the same ValueError
+
+
+@pytest.mark.filterwarnings("ignore::workbench._checks.ValidityWarning")
+@pytest.mark.parametrize(
+    "name, field, text, attr, si",
+    [
+        # 36 h = 129 600 s (scipy.constants.hour); 6 W stays 6 W
+        ("shipper.toml", "duration", "36 h", "duration", 36 * constants.hour),
+        ("housing.toml", "power", "6 W", "power", 6.0),
+    ],
+)
+def test_a_panel_opened_from_a_file_saves_what_was_typed_and_what_the_file_held(
+    tmp_path, name, field, text, attr, si
+):
+    """Nothing entered or saved is lost: the typed value, and the file's criteria, limits,
+    notes and decision (which the study object does not hold) come back from the saved file."""
+    original = load_scenario(EXAMPLES / name)
+    j = _chooser()
+    panel = j.open_file(str(EXAMPLES / name))
+    assert panel.set_inputs(**{field: text}) == {field: ""}
+    target = tmp_path / "saved.toml"
+    panel.scenario_bar.path.value = str(target)
+    panel.scenario_bar.save_button.click()
+    assert "Saved to" in panel.scenario_bar.message.value, panel.scenario_bar.message.value
+    back = load_scenario(target)
+    assert back.kind == original.kind and back.title == original.title
+    assert (back.criteria, back.constraints, back.notes, back.decision, back.limits) == (
+        original.criteria,
+        original.constraints,
+        original.notes,
+        original.decision,
+        original.limits,
+    )
+    study = study_from_scenario(back)
+    assert getattr(study, attr) == pytest.approx(si, rel=1e-12)
+    assert list(study.names) == list(panel.study.names)
+    # the saved file rebuilds the study the panel shows (same results, not only same inputs)
+    if original.kind == "housing":
+        assert_allclose(
+            study.results()["t_surface"].to_numpy(float),
+            panel.study.results()["t_surface"].to_numpy(float),
+            rtol=1e-12,
+        )
+    else:
+        assert_allclose(
+            study.results().optimum["thickness"].to_numpy(float),
+            panel.study.results().optimum["thickness"].to_numpy(float),
+            rtol=1e-12,
+        )
+    # a second Save does not overwrite silently
+    panel.scenario_bar.save_button.click()
+    assert "exists" in panel.scenario_bar.message.value
+
+
+def test_a_save_only_bar_has_no_open_buttons():
+    j = _chooser()
+    panel = j.open_job("housing")
+    row = panel.scenario_bar.box.children[0]
+    assert panel.scenario_bar.save_button in row.children
+    assert panel.scenario_bar.open_button not in row.children

@@ -14,103 +14,13 @@ parts that need them (units, tables, a few special functions); only
 from __future__ import annotations
 
 import importlib
-from typing import TYPE_CHECKING, Any
+from typing import Any
 
 # ``air_properties`` is both a submodule and a public function. Importing the
 # submodule (directly or through air_layers, surfaces, housing ...) binds the
 # module to ``workbench.air_properties``; so the function is bound here, eagerly,
 # after the submodule is loaded. The submodule needs numpy only.
 from workbench.air_properties import air_properties
-
-if TYPE_CHECKING:  # static type checkers and IDEs see the eager imports
-    from workbench._checks import ValidityWarning
-    from workbench.air_layers import (
-        AirLayer,
-        air_layer_resistance,
-        air_layer_resistance_detailed,
-        convection_onset_width,
-        gap_equivalent_conductivity,
-        ventilation_class,
-    )
-    from workbench.air_properties import air_properties
-    from workbench.conduction import (
-        SolidLayer,
-        WallSolution,
-        cost_per_area,
-        heat_flux,
-        mass_per_area,
-        mean_conductivity,
-        required_thickness,
-        series_resistance,
-        solve_wall,
-        u_value,
-        wall_temperatures,
-    )
-    from workbench.coolants import load_coolants
-    from workbench.freight import billable_mass, landed_cost, outer_dimensions, round_up_mass
-    from workbench.geometry import (
-        BoxConductance,
-        VacuumPanel,
-        box_conductance,
-        box_conductance_breakdown,
-        critical_insulation_radius,
-        cylinder_conductance,
-        layered_box_conductance,
-        vacuum_panel_effective_conductivity,
-    )
-    from workbench.housing import (
-        HousingSolution,
-        hot_spot,
-        housing_heat_capacity,
-        housing_warm_up,
-        solve_housing,
-    )
-    from workbench.logger import load_ambient_profile
-    from workbench.materials import (
-        FAMILIES,
-        MaterialsFileError,
-        check_materials_file,
-        load_conductivity_curves,
-        load_materials,
-        load_sources,
-    )
-    from workbench.ranking import (
-        Criterion,
-        Limit,
-        material_indices,
-        pareto_front,
-        rank_stability,
-        screen_candidates,
-        weighted_scores,
-    )
-    from workbench.spreading import spreading_length, spreading_resistance, wall_biot_number
-    from workbench.stacks import (
-        check_service_limits,
-        enumerate_stacks,
-        stack_catalogue,
-        stack_front,
-    )
-    from workbench.surfaces import (
-        SURFACE_RESISTANCES,
-        SurfaceFilm,
-        combined_film_resistance,
-        conventional_surface_resistance,
-        flat_plate_convection_coefficient,
-        iso6946_convection_coefficient,
-        natural_convection_coefficient,
-        radiation_coefficient,
-        surface_film,
-    )
-    from workbench.touch import load_touch_limits, touch_limit, touch_margin
-    from workbench.transient import (
-        HoldSimulation,
-        coolant_mass_for_duration,
-        hold_time,
-        simulate_hold,
-        thickness_for_duration,
-    )
-    from workbench.uncertainty import MonteCarloResult, monte_carlo
-    from workbench.units import UnitError, format_quantity, parse
 
 __version__ = "0.1.0"
 
@@ -202,88 +112,7 @@ _EXPORTS: dict[str, tuple[str, ...]] = {
 }
 _WHERE: dict[str, str] = {name: module for module, names in _EXPORTS.items() for name in names}
 
-__all__ = [
-    "ValidityWarning",
-    "SolidLayer",
-    "WallSolution",
-    "cost_per_area",
-    "heat_flux",
-    "mass_per_area",
-    "mean_conductivity",
-    "required_thickness",
-    "series_resistance",
-    "solve_wall",
-    "u_value",
-    "wall_temperatures",
-    "AirLayer",
-    "air_layer_resistance",
-    "air_layer_resistance_detailed",
-    "convection_onset_width",
-    "gap_equivalent_conductivity",
-    "ventilation_class",
-    "air_properties",
-    "BoxConductance",
-    "VacuumPanel",
-    "box_conductance",
-    "box_conductance_breakdown",
-    "critical_insulation_radius",
-    "cylinder_conductance",
-    "layered_box_conductance",
-    "vacuum_panel_effective_conductivity",
-    "SURFACE_RESISTANCES",
-    "SurfaceFilm",
-    "combined_film_resistance",
-    "conventional_surface_resistance",
-    "flat_plate_convection_coefficient",
-    "iso6946_convection_coefficient",
-    "natural_convection_coefficient",
-    "radiation_coefficient",
-    "surface_film",
-    "HousingSolution",
-    "hot_spot",
-    "solve_housing",
-    "housing_warm_up",
-    "housing_heat_capacity",
-    "spreading_length",
-    "spreading_resistance",
-    "wall_biot_number",
-    "load_touch_limits",
-    "touch_limit",
-    "touch_margin",
-    "load_coolants",
-    "billable_mass",
-    "landed_cost",
-    "outer_dimensions",
-    "round_up_mass",
-    "HoldSimulation",
-    "coolant_mass_for_duration",
-    "hold_time",
-    "simulate_hold",
-    "thickness_for_duration",
-    "Criterion",
-    "Limit",
-    "material_indices",
-    "pareto_front",
-    "rank_stability",
-    "screen_candidates",
-    "weighted_scores",
-    "check_service_limits",
-    "enumerate_stacks",
-    "stack_catalogue",
-    "stack_front",
-    "MonteCarloResult",
-    "monte_carlo",
-    "load_ambient_profile",
-    "FAMILIES",
-    "MaterialsFileError",
-    "check_materials_file",
-    "load_conductivity_curves",
-    "load_materials",
-    "load_sources",
-    "UnitError",
-    "format_quantity",
-    "parse",
-]
+__all__ = ["air_properties", *_WHERE]
 
 
 def __getattr__(name: str) -> Any:

@@ -128,6 +128,7 @@ class Workbench(widgets.VBox):
         self._criteria: tuple = ()
         self._constraints: tuple = ()
         self._notes = ""
+        self._limits: dict = {}
         self.decision_form = DecisionForm(on_change=self._decision_changed)
         self.compare_box = CompareBox(self.current_scenario)
         self.scenario_bar = ScenarioBar(self.current_scenario, self.open_study, autosave_delay)
@@ -572,7 +573,7 @@ class Workbench(widgets.VBox):
         chosen = decided if decided in self.study.names else self.study.names[self._chosen]
         scen = snapshot(self.study, system=self.system, chosen=chosen, title=self.title, notes=self._notes,
                         criteria=self._criteria, constraints=self._constraints)
-        return self.decision_form.apply(scen)
+        return self.decision_form.apply(dataclasses.replace(scen, limits=self._limits))
 
     def _decision_changed(self) -> None:
         """The decision form changed: mark its candidate in the charts and schedule the autosave."""
@@ -595,8 +596,9 @@ class Workbench(widgets.VBox):
         if scenario is not None and getattr(scenario, "title", ""):
             self.title = scenario.title
             self.header.value = self._header_html(self.title, "demo" in self.title.lower())
-        old_kept = (self._criteria, self._constraints, self._notes)
+        old_kept = (self._criteria, self._constraints, self._notes, self._limits)
         if scenario is not None:
+            self._limits = dict(getattr(scenario, "limits", {}) or {})
             self._criteria = tuple(getattr(scenario, "criteria", ()) or ())
             self._constraints = tuple(getattr(scenario, "constraints", ()) or ())
             self._notes = getattr(scenario, "notes", "") or ""
@@ -632,7 +634,7 @@ class Workbench(widgets.VBox):
             self.refresh()
         except Exception:
             self.study, self._chosen, self.system = old
-            self._criteria, self._constraints, self._notes = old_kept
+            self._criteria, self._constraints, self._notes, self._limits = old_kept
             self._set_candidates_ui()
             self.refresh()
             raise

@@ -44,6 +44,7 @@ from workbench.widgets.parts import (
     section,
 )
 from workbench.widgets.plotview import PlotView
+from workbench.widgets.scenario_bar import ScenarioBar, kept_from, panel_scenario
 
 __all__ = ["HousingPanel", "demo_housing_study", "HOUSING_PANEL_CAUTIONS"]
 
@@ -121,6 +122,9 @@ class HousingPanel(widgets.VBox):
         Initial display system.
     title : str, optional
         Heading.
+    scenario : Scenario, optional
+        The scenario file the study came from: Save writes its criteria, limits, notes
+        and decision back with the panel's inputs.
 
     Notes
     -----
@@ -131,7 +135,7 @@ class HousingPanel(widgets.VBox):
     """
 
     def __init__(self, study: HousingStudy | None = None, system: str = "SI", title: str | None = None,
-                 n_emissivity: int = 50, n_power: int = 41):
+                 n_emissivity: int = 50, n_power: int = 41, scenario=None):
         units.check_system(system)
         demo = study is None
         self.study = demo_housing_study() if study is None else study
@@ -140,6 +144,7 @@ class HousingPanel(widgets.VBox):
         self.system = system
         self.demo = demo
         self.title = title or (HOUSING_DEMO_TITLE if demo else "Housing comparison")
+        self._kept = kept_from(scenario)
         s = self.study
         self.share = (s.component.power / s.power) if (s.component is not None and s.power > 0) else 0.0
         self.emissivities = np.linspace(0.02, 1.0, int(n_emissivity))
@@ -269,6 +274,8 @@ class HousingPanel(widgets.VBox):
              section("Power"), self.slider, hint, self.notes],
             "hw-housing-inputs", [self.view_eps, self.view_pow, self.view_warm],
             "Results per candidate (pass/fail against the touch and inside-air limits)", self.table)
+        self.scenario_bar = ScenarioBar(self.current_scenario, None, None, "housing_scenario.toml")
+        self._children = [*self._children, section("Save as a scenario file"), self.scenario_bar.box]
         self.system_toggle.observe(self._toggled, "value")
         self.slider.observe(self._slid, "value")
         self.contact_presets.observe(self._preset_chosen, "value")
@@ -314,6 +321,11 @@ class HousingPanel(widgets.VBox):
         finally:
             self._silent = False
         self._redraw()
+
+    def current_scenario(self):
+        """The scenario of what is shown now (for Save): inputs and candidates, plus what the
+        file it came from held besides (criteria, limits, notes, decision)."""
+        return panel_scenario(self.study, self._kept, self.title, self.system)
 
     def _show_power_now(self, study: HousingStudy, res) -> None:
         """Move the power chart's current-power markers and line to ``study``'s power, and send it."""

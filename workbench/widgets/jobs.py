@@ -304,5 +304,5 @@ class JobChooser(widgets.VBox):
             panel.open_study(study, scen)  # the file's decision, criteria and notes, as its Open button does
             return panel
         if key == "shipper":
-            return ShipperPanel(study, system=system, title=title, background=self.background)
-        return HousingPanel(study, system=system, title=title)
+            return ShipperPanel(study, system=system, title=title, background=self.background, scenario=scen)
+        return HousingPanel(study, system=system, title=title, scenario=scen)

@@ -18,7 +18,7 @@ import ipywidgets as widgets
 from workbench import scenario as scenario_files
 from workbench.widgets.fields import LOG, show_message
 
-__all__ = ["ScenarioBar", "cancel_pending_autosaves"]
+__all__ = ["ScenarioBar", "cancel_pending_autosaves", "kept_from", "panel_scenario"]
 
 # Every autosave timer not yet fired, so a kernel shutdown or a test can stop them all.
 _PENDING: weakref.WeakSet[threading.Timer] = weakref.WeakSet()
@@ -40,6 +40,35 @@ def cancel_pending_autosaves() -> int:
     return len(timers)
 
 
+def kept_from(scenario) -> dict:
+    """What a panel keeps from the scenario file it was opened from, so Save writes it back.
+
+    The study holds the inputs and candidates; the file's criteria, hard limits, notes,
+    decision and work limits live only in the scenario and would otherwise be lost.
+    """
+    if scenario is None:
+        return {}
+    return {
+        "criteria": tuple(getattr(scenario, "criteria", ()) or ()),
+        "constraints": tuple(getattr(scenario, "constraints", ()) or ()),
+        "notes": getattr(scenario, "notes", "") or "",
+        "decision": getattr(scenario, "decision", None),
+        "limits": dict(getattr(scenario, "limits", {}) or {}),
+    }
+
+
+def panel_scenario(study, kept: dict, title: str, system: str):
+    """The scenario of a job panel's study, with what it kept from its file (see :func:`kept_from`)."""
+    from dataclasses import replace
+
+    kw = {k: v for k, v in kept.items() if k != "limits"}
+    decision = kw.get("decision")
+    if decision is not None and decision.chosen not in [str(n) for n in getattr(study, "names", [])]:
+        kw["decision"] = None  # the chosen candidate is no longer among the candidates
+    scen = scenario_files.scenario_from_study(study, title=title, display_system=system, **kw)
+    return replace(scen, limits=kept.get("limits", {}))
+
+
 class ScenarioBar:
     """File name, Save / Open / Recover buttons, an overwrite tick box and a message line.
 
@@ -47,20 +76,24 @@ class ScenarioBar:
     ----------
     current : callable
         Returns the :class:`~workbench.scenario.Scenario` of what the workbench shows now.
-    open_study : callable
-        ``open_study(study, scenario)`` puts a loaded study into the workbench.
+    open_study : callable or None
+        ``open_study(study, scenario)`` puts a loaded study into the workbench; ``None``:
+        the bar saves only (no Open / Reopen buttons; the app's first page opens files).
     autosave_delay : float
         Seconds of quiet after the last change before the last-used scenario is
         written (``None`` disables autosave).
+    file_name : str
+        The file name offered at first.
     """
 
-    def __init__(self, current: Callable, open_study: Callable, autosave_delay: float | None = 1.5):
+    def __init__(self, current: Callable, open_study: Callable | None, autosave_delay: float | None = 1.5,
+                 file_name: str = "wall_scenario.toml"):
         self._current = current
         self._open_study = open_study
         self._delay = autosave_delay
         self._timer: threading.Timer | None = None
         lay = widgets.Layout
-        self.path = widgets.Text(value="wall_scenario.toml", description="Scenario file",
+        self.path = widgets.Text(value=file_name, description="Scenario file",
                                  placeholder="e.g. cold_room.toml", style={"description_width": "100px"},
                                  layout=lay(width="360px"))
         self.path.add_class("hw-scenario-path")
@@ -81,7 +114,8 @@ class ScenarioBar:
         self.open_button.on_click(lambda _: self._guard(self.open))
         self.recover_button.on_click(lambda _: self._guard(self.recover))
         self.box = widgets.VBox([
-            widgets.HBox([self.path, self.save_button, self.open_button, self.recover_button]),
+            widgets.HBox([self.path, self.save_button]
+                         + ([self.open_button, self.recover_button] if open_study is not None else [])),
             self.overwrite,
             self.message,
         ])

@@ -43,6 +43,7 @@ from workbench.widgets.parts import (
 )
 from workbench.widgets.plotview import PlotView
 from workbench.widgets.runner import TaskRunner
+from workbench.widgets.scenario_bar import ScenarioBar, kept_from, panel_scenario
 
 __all__ = ["ShipperPanel", "demo_shipper_study", "SHIPPER_PANEL_CAUTIONS", "CostField"]
 
@@ -187,7 +188,7 @@ class ShipperPanel(widgets.VBox):
     """
 
     def __init__(self, study: ShipperStudy | None = None, system: str = "SI", title: str | None = None,
-                 coolant_mass: float | None = None, background: bool = True):
+                 coolant_mass: float | None = None, background: bool = True, scenario=None):
         units.check_system(system)
         self.background = bool(background)
         self._draw_lock = threading.RLock()
@@ -198,6 +199,7 @@ class ShipperPanel(widgets.VBox):
         self.system = system
         self.demo = demo
         self.title = title or (SHIPPER_DEMO_TITLE if demo else "Insulated shipper comparison")
+        self._kept = kept_from(scenario)
         cur = sorted({str(c).strip() for c in self.study.materials.get("currency", pd.Series(dtype=str)).dropna()}
                      - {""})
         self.currency = cur[0] if len(cur) == 1 else "EUR"
@@ -334,8 +336,10 @@ class ShipperPanel(widgets.VBox):
              section("Insulation thickness"), self.slider, hint, self.runner.box,
              section("Trace"), self.trace_pick, self.trace_also],
             "hw-shipper-inputs", [self.view_hold, self.view_cost], "Results per build-up", self.table)
+        self.scenario_bar = ScenarioBar(self.current_scenario, None, None, "shipper_scenario.toml")
         self._children = [*self._children, self.view_trace, self.trace_cautions,
-                          section("Per ambient profile, at the current thickness"), self.profile_table]
+                          section("Per ambient profile, at the current thickness"), self.profile_table,
+                          section("Save as a scenario file"), self.scenario_bar.box]
         self.system_toggle.observe(self._toggled, "value")
         self.slider.observe(self._slid, "value")
         self.trace_pick.observe(self._trace_changed, "value")
@@ -359,6 +363,12 @@ class ShipperPanel(widgets.VBox):
         """
         new = dataclasses.replace(self._wanted[0], **changes)
         self._recompute(new, self._wanted[1], full=True)
+
+    def current_scenario(self):
+        """The scenario of what was last entered (for Save), even while it is still being
+        simulated: inputs and candidates, plus what the file it came from held besides
+        (criteria, limits, notes, decision)."""
+        return panel_scenario(self._wanted[0], self._kept, self.title, self.system)
 
     def _set_coolant_mass(self, mass: float) -> None:
         mass = float(mass)

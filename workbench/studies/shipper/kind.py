@@ -31,31 +31,6 @@ from workbench.studies.shipper.study import ShipperCandidate, ShipperStudy
 from workbench.studies.wall.study import Layer
 
 coolants = tuple(load_coolants().index)
-#: Inputs read straight into the study (name -> quantity kind).
-quantities = {
-    "payload_length": "length",
-    "payload_width": "length",
-    "payload_height": "length",
-    "payload_mass": "mass",
-    "payload_specific_heat": "specific_heat",
-    "t_payload_min": "temperature",
-    "t_payload_max": "temperature",
-    "t_payload_start": "temperature",
-    "t_ambient": "temperature",
-    "duration": "time",
-    "safety_factor": "dimensionless",
-    "coolant_packing_fraction": "dimensionless",
-    "t_coolant_start": "temperature",
-    "r_si": "resistance",
-    "r_se": "resistance",
-    "coupling_coefficient": "heat_transfer_coefficient",
-    "coolant_wall_fraction": "dimensionless",
-    "divisor": "volume_per_mass",
-    "mass_increment": "mass",
-    "rate_per_kg": "cost_per_mass",
-    "fixed_fee": "money",
-    "time_step": "time",
-}
 #: SI unit written back for each quantity kind.
 si_units = {
     "length": "m",
@@ -405,6 +380,10 @@ INPUTS: tuple[InputSpec, ...] = (
     InputSpec("fixed_fee", "money", "5 EUR", "Fixed freight charge per shipment (demo)", label="Fixed freight fee"),
     InputSpec("time_step", "time", "300 s", "Time step of the hold simulation", label="Simulation time step"),
 )
+
+#: Inputs read straight into the study (name -> quantity kind): every input whose kind
+#: is a single quantity (the coolant, the ambient profiles and the thicknesses are read apart).
+quantities = {s.name: s.kind for s in INPUTS if s.kind in si_units}
 """Inputs of a shipper scenario, in starter-file order."""
 
 
