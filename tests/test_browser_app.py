@@ -6,13 +6,14 @@ the server helpers come from tests/test_browser.py), beside a copy of
 examples/, as in the repository, and drives Debian's Chromium through
 Playwright. The user story: the first page shows the three jobs; each job's
 button opens its panel, whose charts hold data; "All jobs" leads back to the
-first page; a scenario file opens by a relative path in the panel of its kind;
+first page; a scenario file opens by a relative path in the panel of its kind, and
+the panel saves it again as a file that loads;
 a scenario file with a wrong unit shows a message naming file:line:column and
 the key, and no traceback. Every step waits on a page state, never on time.
 
 Screenshots (1280×800) go to ./artifacts/: voila_app_home.png,
 voila_app_wall.png, voila_app_shipper.png, voila_app_housing.png,
-voila_app_file.png, voila_app_bad_file.png.
+voila_app_file.png, voila_app_saved.png, voila_app_bad_file.png.
 
 No physical value is asserted here (the panels' numbers are checked in
 tests/test_job_panels.py, tests/test_widgets.py and tests/test_browser_panels.py).
@@ -25,6 +26,8 @@ import sys
 from pathlib import Path
 
 import pytest
+
+from workbench.scenario import load_scenario
 
 sys.path.insert(0, str(Path(__file__).resolve().parent))  # tests/ is not a package
 
@@ -138,6 +141,18 @@ def test_voila_app_first_page_jobs_back_and_files(browser, tmp_path):  # noqa: F
                                    ".includes('Sealed controller housing')", timeout=60_000)
             page.mouse.move(1, 1)
             page.screenshot(path=str(ARTIFACTS / "voila_app_file.png"))
+
+            # the panel saves what it shows as a scenario file that opens again (nothing entered is lost)
+            saved = tmp_path / "saved_housing.toml"
+            path_field = page.locator(".hw-housing .hw-scenario-path input")
+            path_field.fill(str(saved))
+            page.locator(".hw-housing button.hw-scenario-save").click()
+            page.wait_for_function("(want) => { const m = document.querySelector('.hw-housing .hw-scenario-message');"
+                                   " return m !== null && m.textContent.includes(want); }",
+                                   arg=f"Saved to {saved}", timeout=60_000)
+            assert load_scenario(saved).title == load_scenario(ROOT / "examples" / "housing.toml").title
+            page.locator(".hw-housing .hw-scenario-message").scroll_into_view_if_needed()
+            page.screenshot(path=str(ARTIFACTS / "voila_app_saved.png"))
             page.locator("button.hw-jobs-back").click()
             _home_shown(page)
 

@@ -366,7 +366,7 @@ def test_housing_warm_up_chart_follows_the_study(house, house_study):
     limits = [t for t in house.fig_warm.data[n:] if t.name.startswith("touch limit")]
     assert limits and all("°C" in t.name for t in limits)
     assert "Time into the session [min]" == house.fig_warm.layout.xaxis.title.text
-    assert "Touch safety and component limits stay with" in house.fig_warm.layout.annotations[0].text
+    assert "Touch safety: the product standard and a measurement" in house.fig_warm.layout.annotations[0].text
     assert "Time to touch limit" in house.table.value and "not within session" in house.table.value
     assert "Touch safety and component limits stay with" in house.table.value
 
@@ -593,3 +593,31 @@ def test_a_save_only_bar_has_no_open_buttons():
     row = panel.scenario_bar.box.children[0]
     assert panel.scenario_bar.save_button in row.children
     assert panel.scenario_bar.open_button not in row.children
+
+
+def test_panel_fields_are_described_by_their_study_kind():
+    """A panel's fields take their quantity kind and meaning from the kind's declaration
+    (the tooltip names the scenario-file key they save to); a panel that asked for another
+    quantity than its declaration would be refused when built."""
+    from workbench.scenario import study_kind
+    from workbench.widgets.fields import input_field
+
+    j = _chooser()
+    seen = 0
+    for key in ("wall", "shipper", "housing"):
+        panel = j.open_job(key)
+        kind = study_kind(key)
+        for f in vars(panel).values():
+            name = getattr(f, "input_name", None)
+            if name is None:
+                continue
+            spec = kind.input_spec(name)
+            assert f.text.tooltip == f"{spec.doc} (scenario file: inputs.{name})"
+            if spec.kind != "budget":
+                assert f.kind == spec.kind
+            seen += 1
+    assert seen >= 12
+    with pytest.raises(ValueError, match="housing.power: declared as 'power', the panel asks 'temperature'"):
+        input_field("housing", "power", "P", "power", 1.0, lambda v: None, quantity="temperature")
+    with pytest.raises(ValueError, match="unknown 'powr'"):
+        input_field("housing", "powr", "P", "power", 1.0, lambda v: None)

@@ -32,7 +32,7 @@ from workbench.widgets.charts import (
     compute_view,
 )
 from workbench.widgets.decision import CompareBox, DecisionForm
-from workbench.widgets.fields import UnitField, show_message
+from workbench.widgets.fields import input_field, show_message
 from workbench.widgets.parts import cell, guard, header_cell, section
 from workbench.widgets.picker import CandidatePicker, short_label
 from workbench.widgets.plotview import figure_spec
@@ -171,18 +171,19 @@ class Workbench(widgets.VBox):
         self.picker = CandidatePicker(s.materials, [c.name for c in s.candidates], self._set_candidates,
                                       on_file=self._load_file, system=self.system)
 
-        self.f_inside = UnitField("Inside air", "temperature", "inside temperature", s.t_inside,
+        self.f_inside = input_field("wall", "t_inside", "Inside air", "inside temperature", s.t_inside,
                                   lambda v: self._apply_temperatures(t_inside=v), self.system, "hw-t-inside")
-        self.f_outside = UnitField("Outside air", "temperature", "outside temperature", s.t_outside,
+        self.f_outside = input_field("wall", "t_outside", "Outside air", "outside temperature", s.t_outside,
                                    lambda v: self._apply_temperatures(t_outside=v), self.system, "hw-t-outside")
-        self.f_area = UnitField("Wall area", "area", "area", s.area, lambda v: self._apply(area=v), self.system,
+        self.f_area = input_field("wall", "area", "Wall area", "area", s.area, lambda v: self._apply(area=v), self.system,
                                 "hw-area")
         self.budget_kind = widgets.Dropdown(options=_BUDGET_LABELS, value=s.budget.kind, description="Heat budget as",
                                             style={"description_width": "118px"}, layout=w(width="300px"))
         self.budget_kind.add_class("hw-budget-kind")
-        self.f_budget = UnitField("Budget", _BUDGET_KINDS[s.budget.kind], "heat budget", s.budget.value,
-                                  self._apply_budget_value, self.system, "hw-budget")
-        self.f_max = UnitField("Max thickness", "thickness", "max thickness",
+        self.f_budget = input_field("wall", "budget", "Budget", "heat budget", s.budget.value,
+                                    self._apply_budget_value, self.system, "hw-budget",
+                                    quantity=_BUDGET_KINDS[s.budget.kind])
+        self.f_max = input_field("wall", "max_thickness", "Max thickness", "max thickness",
                                s.max_thickness if s.max_thickness is not None else 0.1,
                                lambda v: self._apply(max_thickness=v), self.system, "hw-max-thickness")
 

@@ -14,7 +14,7 @@ import ipywidgets as widgets
 
 from workbench import units
 
-__all__ = ["UnitField", "show_message", "LOG"]
+__all__ = ["UnitField", "input_field", "show_message", "LOG"]
 
 LOG = logging.getLogger("workbench.widgets")
 
@@ -152,3 +152,46 @@ class UnitField:
             return
         self.value_si = value
         self._set_error("")
+
+
+def input_field(
+    kind_name: str,
+    input_name: str,
+    label: str,
+    field: str,
+    value_si: float,
+    on_change: Callable[[float], None],
+    system: str = "SI",
+    css: str = "",
+    *,
+    quantity: str | None = None,
+    cls: type[UnitField] = UnitField,
+    **extra,
+) -> UnitField:
+    """A field for one scenario-file input of a study kind, described by the kind's declaration.
+
+    The quantity kind (which units the field accepts) and the meaning (shown when the
+    pointer rests on the field, with the scenario-file key it saves to) come from the
+    kind's :class:`~workbench.studykind.InputSpec`; the panel gives only its short label,
+    the name used in messages and where it goes. ``quantity`` overrides the quantity kind
+    where the declaration allows several (a heat budget: flux, power or U-value).
+
+    Raises
+    ------
+    ValueError
+        The kind declares no such input, or its quantity kind differs from ``quantity``'s
+        family (a panel and its declaration that disagree are a programming error, caught
+        when the panel is built, never shown as a wrong number).
+    """
+    from workbench.scenario import study_kind
+
+    spec = study_kind(kind_name).input_spec(input_name)
+    qkind = quantity or spec.kind
+    if qkind not in units.KINDS:
+        raise ValueError(f"{kind_name}.{input_name}: quantity kind {qkind!r} is not a unit kind; pass quantity=")
+    if quantity is not None and spec.kind in units.KINDS and spec.kind != quantity:
+        raise ValueError(f"{kind_name}.{input_name}: declared as {spec.kind!r}, the panel asks {quantity!r}")
+    f = cls(label, qkind, field, value_si, on_change, system, css, **extra)
+    f.text.tooltip = f"{spec.doc} (scenario file: inputs.{spec.name})"
+    f.input_name = spec.name
+    return f

@@ -31,7 +31,7 @@ from workbench.studies.housing import (
 )
 from workbench.widgets import style
 from workbench.widgets.charts import _affine, _base_layout, update_housing_warm_up
-from workbench.widgets.fields import UnitField, show_message
+from workbench.widgets.fields import input_field, show_message
 from workbench.widgets.parts import (
     cautions_html,
     cell,
@@ -46,17 +46,10 @@ from workbench.widgets.parts import (
 from workbench.widgets.plotview import PlotView
 from workbench.widgets.scenario_bar import ScenarioBar, kept_from, panel_scenario
 
-__all__ = ["HousingPanel", "demo_housing_study", "HOUSING_PANEL_CAUTIONS"]
+__all__ = ["HousingPanel", "demo_housing_study"]
 
 HOUSING_DEMO_TITLE = "Demo (invented): handheld field data logger on a 35 °C bench"
 
-#: Always shown above the charts (our wording); the study's cautions follow it.
-HOUSING_PANEL_CAUTIONS = (
-    "Touch limits depend on the product standard that applies to your product and are confirmed by "
-    "testing the product; the shipped limits are skin burn thresholds, not product limits.",
-    "All temperatures are first-order steady-state estimates: confirm with a prototype measurement.",
-    TOUCH_RESULT_CAUTION,
-)
 
 _LIMIT_DASH = ("dash", "dot", "dashdot", "longdash", "longdashdot")
 
@@ -205,11 +198,11 @@ class HousingPanel(widgets.VBox):
         self.cautions.add_class("hw-housing-cautions")
         self.status = widgets.HTML("")
         self.status.add_class("hw-housing-status")
-        self.f_power = UnitField("Power inside", "power", "dissipated power", s.power, self._set_power, sys_,
+        self.f_power = input_field("housing", "power", "Power inside", "dissipated power", s.power, self._set_power, sys_,
                                  "hw-housing-power")
-        self.f_ambient = UnitField("Ambient", "temperature", "ambient temperature", s.t_ambient,
+        self.f_ambient = input_field("housing", "t_ambient", "Ambient", "ambient temperature", s.t_ambient,
                                    lambda v: self._apply(t_ambient=v), sys_, "hw-housing-ambient")
-        self.f_contact = UnitField("Touch contact", "time", "contact duration", s.contact_duration,
+        self.f_contact = input_field("housing", "contact_duration", "Touch contact", "contact duration", s.contact_duration,
                                    lambda v: self._apply(contact_duration=v), sys_, "hw-housing-contact",
                                    unit=_contact_unit)
         self.contact_presets = widgets.ToggleButtons(
@@ -219,9 +212,9 @@ class HousingPanel(widgets.VBox):
                 "a whole working day (8 h and longer)"],
             style={"button_width": "62px"}, layout=w(margin="0 0 4px 118px"))
         self.contact_presets.add_class("hw-housing-contact-presets")
-        self.f_session = UnitField("Use session", "time", "use-session duration", s.session_duration,
+        self.f_session = input_field("housing", "session_duration", "Use session", "use-session duration", s.session_duration,
                                    lambda v: self._apply(session_duration=v), sys_, "hw-housing-session", unit="min")
-        self.f_contents = UnitField("Contents heat cap.", "heat_capacity", "contents' heat capacity",
+        self.f_contents = input_field("housing", "content_heat_capacity", "Contents heat cap.", "contents' heat capacity",
                                     s.content_heat_capacity, lambda v: self._apply(content_heat_capacity=v), sys_,
                                     "hw-housing-contents")
         self.slider = widgets.FloatSlider(description="Power", continuous_update=False, readout_format=".3g",
@@ -421,7 +414,7 @@ class HousingPanel(widgets.VBox):
         self._redraw_figures()
         self.resync()
         self._draw_table()
-        self.cautions.value = cautions_html(HOUSING_PANEL_CAUTIONS, HOUSING_CAUTIONS)
+        self.cautions.value = cautions_html(HOUSING_CAUTIONS)
         self.notes.value = ("" if not self.validity else
                             '<div class="hw-hint">Outside a correlation\'s validity range: '
                             + html.escape("; ".join(self.validity)) + "</div>")

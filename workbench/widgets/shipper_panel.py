@@ -29,7 +29,7 @@ from workbench.studies.shipper import ShipperStudy
 from workbench.transient import ambient_profile
 from workbench.widgets import style
 from workbench.widgets.charts import _base_layout, update_shipper_trace
-from workbench.widgets.fields import LOG, UnitField, show_message
+from workbench.widgets.fields import LOG, UnitField, input_field, show_message
 from workbench.widgets.parts import (
     cautions_html,
     cell,
@@ -250,15 +250,16 @@ class ShipperPanel(widgets.VBox):
         self.status = widgets.HTML("")
         self.status.add_class("hw-shipper-status")
         sys_ = self.system
-        self.f_duration = UnitField("Target hold", "time", "target hold time", s.duration,
+        self.f_duration = input_field("shipper", "duration", "Target hold", "target hold time", s.duration,
                                     lambda v: self._apply(duration=v), sys_, "hw-shipper-duration")
         self.f_ambient = UnitField("Hottest ambient", "temperature", "hottest ambient", _study_peak(s),
                                    lambda v: self._apply(**_peak_changes(self._wanted[0], v)),
                                    sys_, "hw-shipper-ambient")
         self.f_coolant = UnitField("Coolant (chart)", "mass", "coolant mass", self.coolant_mass,
                                    self._set_coolant_mass, sys_, "hw-shipper-coolant")
-        self.f_rate = CostField("Freight rate", "cost_per_mass", "freight rate", s.rate_per_kg,
-                                lambda v: self._apply(rate_per_kg=v), sys_, "hw-shipper-rate", self.currency)
+        self.f_rate = input_field("shipper", "rate_per_kg", "Freight rate", "freight rate", s.rate_per_kg,
+                                  lambda v: self._apply(rate_per_kg=v), sys_, "hw-shipper-rate",
+                                  cls=CostField, currency=self.currency)
         self.slider = widgets.SelectionSlider(options=self._slider_options(), value=self.thickness,
                                               description="Insulation", continuous_update=True,
                                               style={"description_width": "118px"}, layout=w(width="330px"))

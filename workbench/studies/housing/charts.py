@@ -5,7 +5,6 @@ plotly is imported lazily inside each function; nothing here holds physics.
 
 from __future__ import annotations
 
-import textwrap
 from collections.abc import Sequence
 
 import numpy as np
@@ -13,7 +12,6 @@ import pandas as pd
 
 from workbench import units
 from workbench.studies._chart_parts import _e
-from workbench.studies.housing.study import TOUCH_RESULT_CAUTION
 
 __all__ = ["charts", "warm_up_traces", "warm_up_figure"]
 
@@ -22,6 +20,11 @@ _WARM_COLOURS = (
     "#6b6b6b", "#7a4f1d",
 )
 _LIMIT_DASHES = ("dash", "dot", "dashdot", "longdash", "longdashdot")
+
+
+#: The touch caution on one line under the warm-up chart (the full text is in the cautions
+#: above the charts and under the table: :data:`TOUCH_RESULT_CAUTION`).
+CHART_TOUCH_CAUTION = "Touch safety: the product standard and a measurement on the product decide."
 
 
 def warm_up_traces(
@@ -100,7 +103,7 @@ def warm_up_traces(
         margin={"l": 62, "r": 14, "t": 34, "b": 150},
         annotations=[
             {
-                "text": "<br>".join(textwrap.wrap(TOUCH_RESULT_CAUTION, 80)),
+                "text": CHART_TOUCH_CAUTION,
                 "xref": "paper", "yref": "paper", "x": 0, "y": -0.62, "showarrow": False,
                 "xanchor": "left", "align": "left", "font": {"size": 10, "color": "#8a3b24"},
             }

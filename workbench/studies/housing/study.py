@@ -65,8 +65,9 @@ TOUCH_RESULT_CAUTION = (
 HOUSING_CAUTIONS: tuple[str, ...] = (
     TOUCH_RESULT_CAUTION,
     TOUCH_CAUTION,
-    "All temperatures are first-order steady-state estimates (flat-plate correlations scatter by "
-    "±20 % or more); confirm with a prototype measurement before committing to a design.",
+    "The steady-state temperatures (inside air, surfaces, hot spot) are first-order estimates "
+    "(flat-plate correlations scatter by ±20 % or more); confirm with a prototype measurement "
+    "before committing to a design.",
     "The hot spot assumes the component's heat enters the wall through its footprint (bonded, "
     "no contact resistance): an upper estimate when part of it goes to the inside air.",
     "Costs are indicative demo values; replace them with your own.",
