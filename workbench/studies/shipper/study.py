@@ -862,7 +862,7 @@ class ShipperStudy:
                 "and rooms (asphyxiation risk), wear insulated gloves; for air transport it is dangerous "
                 "goods (UN 1845, Class 9): mark the net mass of dry ice and follow the carrier's and IATA rules."
             )
-        if "demo" in str(row["latent_heat_source"]):
+        if "demo" in str(row["latent_heat_source"]) and "demo" not in str(row["cautions"]).lower():
             out.append(
                 f"{row['name']}: generic demo property values; use the product's measured data."
             )
