@@ -96,3 +96,93 @@ def test_generic_layers_have_no_study_specific_code(module):
 def test_scenario_layer_is_small():
     lines = (PACKAGE / "scenario.py").read_text(encoding="utf-8").count("\n")
     assert lines <= 950, f"workbench/scenario.py has {lines} lines; the guide says about 900"
+
+
+def _module_name(path: Path) -> str:
+    rel = path.relative_to(PACKAGE.parent).with_suffix("")
+    parts = list(rel.parts)
+    if parts[-1] == "__init__":
+        parts = parts[:-1]
+    return ".".join(parts)
+
+
+def import_graph() -> dict[str, set[str]]:
+    """``module -> modules of workbench it imports`` (at module level or inside functions;
+    ``from workbench import units`` counts as importing ``workbench.units``, not the package;
+    a package's ``__init__`` that re-exports its modules imports them)."""
+    modules = {_module_name(p): p for p in PACKAGE.rglob("*.py")}
+    graph: dict[str, set[str]] = {m: set() for m in modules}
+    for name, path in modules.items():
+        for node in ast.walk(ast.parse(path.read_text(encoding="utf-8"))):
+            targets = []
+            if isinstance(node, ast.Import):
+                targets = [a.name for a in node.names]
+            elif isinstance(node, ast.ImportFrom) and node.module and node.level == 0:
+                # ``from pkg import sub`` imports the submodule; ``from mod import name`` the module
+                subs = [f"{node.module}.{a.name}" for a in node.names]
+                targets = [t for t in subs if t in modules]
+                if len(targets) < len(subs):
+                    targets.append(node.module)
+            for t in targets:
+                if t in modules and t != name and t != "workbench":
+                    graph[name].add(t)
+    return graph
+
+
+def cycles(graph: dict[str, set[str]]) -> list[list[str]]:
+    """Import loops (each as the modules along it), found by depth-first search.
+
+    >>> cycles({"a": {"b"}, "b": {"a"}, "c": set()})
+    [['a', 'b', 'a']]
+    >>> cycles({"a": {"b"}, "b": set()})
+    []
+    """
+    found, state = [], {}
+
+    def visit(m: str, stack: list[str]) -> None:
+        state[m] = "open"
+        stack.append(m)
+        for n in sorted(graph.get(m, ())):
+            if state.get(n) == "open":
+                found.append(stack[stack.index(n):] + [n])
+            elif n not in state:
+                visit(n, stack)
+        stack.pop()
+        state[m] = "done"
+
+    for m in sorted(graph):
+        if m not in state:
+            visit(m, [])
+    return found
+
+
+def test_no_import_cycles():
+    """The layers import one way (core → studies → report/review/widgets/cli): no module of
+    workbench imports, even inside a function, one that imports it back."""
+    graph = import_graph()
+    assert len(graph) > 30 and graph["workbench.report"]  # the graph was read
+    assert cycles(graph) == []
+
+
+def test_the_core_imports_no_study_and_no_file_layer():
+    graph = import_graph()
+    core = ("conduction", "surfaces", "air_layers", "geometry", "transient", "housing", "spreading",
+            "freight", "ranking", "stacks", "uncertainty", "touch", "air_properties", "_checks")
+    for name in core:
+        upward = {m for m in graph[f"workbench.{name}"]
+                  if m.startswith(("workbench.studies", "workbench.scenario", "workbench.report",
+                                   "workbench.widgets", "workbench.cli", "workbench.review"))}
+        assert upward == set(), (name, upward)
+
+
+def test_studies_sit_below_the_file_layer():
+    """A study package (object, kind, charts) uses the scenario layer's parts but not the
+    scenario module, the evaluation, the report or the widgets: the scenario module finds the
+    kinds by name on first use (``workbench.studykind._BUILTIN_KINDS``)."""
+    graph = import_graph()
+    above = ("workbench.scenario", "workbench.evaluation", "workbench.report", "workbench.review",
+             "workbench.widgets", "workbench.cli", "workbench.exports")
+    for name, targets in graph.items():
+        if name.startswith("workbench.studies"):
+            upward = {m for m in targets if m.startswith(above)}
+            assert upward == set(), (name, upward)

@@ -13,6 +13,7 @@ from typing import Any
 
 from workbench import units
 from workbench._scenario_inputs import _starter_value
+from workbench._scenario_objects import FORMAT, FORMAT_VERSION
 from workbench._tomlwrite import _value
 from workbench.studykind import _BUILTIN_KINDS, study_kind
 
@@ -144,7 +145,7 @@ def keys_text(kind_name: str | None = None, fmt: str = "text") -> str:
     ...
     ValueError: format: expected 'text' or 'markdown', got 'html'
     """
-    from workbench.report import _label
+    from workbench.studykind import column_label as _label
 
     if fmt not in ("text", "markdown"):
         raise ValueError(f"format: expected 'text' or 'markdown', got {fmt!r}")
@@ -175,8 +176,6 @@ def starter_text(kind_name: str) -> str:
     >>> scenario_from_text(starter_text("wall")).kind
     'wall'
     """
-    from workbench.scenario import FORMAT, FORMAT_VERSION
-
     kind = study_kind(kind_name)
     out = [
         f"# heatpath scenario: {kind.title} -- starter file with DEMO values; edit every line.",

@@ -14,6 +14,13 @@ from typing import Any
 __all__ = ["MaterialsSource", "CriterionSpec", "ConstraintSpec", "Decision", "Scenario"]
 
 
+FORMAT = "heatpath-scenario"
+"""Value of the ``format`` key that marks a scenario file."""
+
+FORMAT_VERSION = 1
+"""Current format version; older versions load through :func:`workbench.scenario.migrate`."""
+
+
 @dataclass(frozen=True)
 class MaterialsSource:
     """The user's materials: a CSV file pinned by its hash, or rows inline.

@@ -281,7 +281,7 @@ def _fmt_quantity(value: float, kind: str | None, system: str, currency: str | N
 def _fmt_one(value: float, kind: str | None, system: str, currency: str | None, unit_si: str,
              sig: int) -> str:
     if kind is None or kind not in units.KINDS:
-        from workbench.report import engineering
+        from workbench.evaluation import engineering
 
         return f"{engineering(value, sig)} {unit_si}".strip()
     cur = currency if units.KINDS[kind].is_cost else None
@@ -402,7 +402,7 @@ def diff_scenarios(old, new, tolerance: float = 0.01, *, old_evaluation=None, ne
     _diff_criteria(old, new, kind, changes)
     _diff_constraints(old, new, kind, system, changes)
 
-    from workbench.report import evaluate
+    from workbench.evaluation import evaluate
 
     ev_old = old_evaluation if old_evaluation is not None else evaluate(old)
     ev_new = new_evaluation if new_evaluation is not None else evaluate(new)
@@ -623,8 +623,8 @@ def _temperature_scale(ev_old, ev_new) -> float:
 
 
 def _diff_results(ev_old, ev_new, kind, system, tolerance, changes) -> None:
-    from workbench.report import _currency
-    from workbench.report import _label as column_label
+    from workbench.studies._chart_parts import _currency
+    from workbench.studykind import column_label
 
     a, b = ev_old.results, ev_new.results
     cur = _currency(b) or _currency(a)
@@ -746,7 +746,7 @@ def changes_since_html(previous, current, tolerance: float | str = 0.01) -> str:
     tolerance : float or str
         Relative tolerance for the results (``0.01`` or ``"1%"``).
     """
-    from workbench.report import Evaluation
+    from workbench.evaluation import Evaluation
     from workbench.scenario import Scenario, load_scenario
 
     old = previous if isinstance(previous, Scenario) else _load(load_scenario, previous)

@@ -158,6 +158,8 @@ from workbench._scenario_materials import (  # noqa: F401
     materials_for,
 )
 from workbench._scenario_objects import (
+    FORMAT,
+    FORMAT_VERSION,
     ConstraintSpec,
     CriterionSpec,
     Decision,
@@ -238,12 +240,6 @@ __all__ = [
     "located_error",
     "DEFAULT_LIMITS",
 ]
-
-FORMAT = "heatpath-scenario"
-"""Value of the ``format`` key that marks a scenario file."""
-
-FORMAT_VERSION = 1
-"""Current format version; older versions load through :func:`migrate`."""
 
 _TOP_KEYS = (
     "format",

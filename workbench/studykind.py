@@ -26,6 +26,7 @@ __all__ = [
     "unregister_study_kind",
     "study_kind",
     "available_kinds",
+    "column_label",
 ]
 
 
@@ -272,3 +273,28 @@ def _candidate_name(c: Any) -> str:
     if isinstance(c, str):
         return c
     return str(c.get("name") or c.get("material") or "")
+
+
+#: Readable names of the ranking's own columns (every kind); a kind's ``column_labels`` add its own.
+_RANKING_LABELS = {"pareto": "Pareto-optimal"}
+
+
+def column_label(col: str, kind: StudyKind | None = None) -> str:
+    """A readable column name: the kind's label, else derived from the column name.
+
+    Examples
+    --------
+    >>> column_label("t_surface_inside"), column_label("u_value"), column_label("pareto")
+    ('Surface temperature inside', 'U-value', 'Pareto-optimal')
+    """
+    if kind is not None and col in kind.column_labels:
+        return kind.column_labels[col]
+    if col in _RANKING_LABELS:
+        return _RANKING_LABELS[col]
+    if col.startswith("t_") and col not in ("t_surface_inside", "t_surface_outside"):
+        col = col[2:] + "_temperature"
+    text = col.replace("_", " ")
+    for a, b in (("t surface", "surface temperature"), ("u value", "U-value"), ("degC", "°C")):
+        text = text.replace(a, b)
+    return text[:1].upper() + text[1:]
+

@@ -216,7 +216,6 @@ def charts(ev) -> list:
         yaxis_title=units.axis_label("temperature", system, "Hot-spot temperature"),
     )
     figs.append(fig)
-    from workbench.studies.housing import warm_up_figure
 
     warm = study.warm_up_frame()
     minutes = float(study.session_duration) / 60.0

@@ -12,8 +12,8 @@ from collections.abc import Mapping, Sequence
 from types import MappingProxyType
 from typing import Any
 
+from workbench._scenario_objects import CriterionSpec, Scenario
 from workbench.housing import MOUNTINGS
-from workbench.scenario import CriterionSpec, InputSpec, Scenario, StudyKind
 from workbench.studies._scenario_parts import (
     _collect,
     _duplicates,
@@ -27,6 +27,7 @@ from workbench.studies.housing.study import (
     HousingStudy,
     load_finishes,
 )
+from workbench.studykind import InputSpec, StudyKind
 
 _HOUSING_KEYS = ("material", "thickness", "finish", "name")
 

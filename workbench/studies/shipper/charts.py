@@ -344,7 +344,6 @@ def _wrap(text: str, width: int = 140) -> str:
 
 def charts(ev) -> list:
     """The report charts of a shipper evaluation (:class:`workbench.report.Evaluation`)."""
-    from workbench.studies.shipper import cost_figure, hold_figure, trace_figure
 
     figs = []
     currency = _currency(ev.results) or "EUR"

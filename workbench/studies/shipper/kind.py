@@ -15,10 +15,10 @@ from typing import Any
 import numpy as np
 
 from workbench import units
+from workbench._scenario_objects import CriterionSpec, Scenario
 from workbench.air_layers import AirLayer
 from workbench.coolants import load_coolants
 from workbench.geometry import VacuumPanel
-from workbench.scenario import CriterionSpec, InputSpec, Scenario, StudyKind
 from workbench.studies._scenario_parts import (
     _check_layer_list,
     _duplicates,
@@ -29,6 +29,7 @@ from workbench.studies._scenario_parts import (
 )
 from workbench.studies.shipper.study import ShipperCandidate, ShipperStudy
 from workbench.studies.wall.study import Layer
+from workbench.studykind import InputSpec, StudyKind
 
 coolants = tuple(load_coolants().index)
 #: SI unit written back for each quantity kind.

@@ -12,9 +12,10 @@ from types import MappingProxyType
 from typing import Any
 
 from workbench import units
-from workbench.scenario import CriterionSpec, InputSpec, Scenario, StudyKind
+from workbench._scenario_objects import CriterionSpec, Scenario
 from workbench.studies._scenario_parts import _quantity, _si_text, _unknown_key_why
 from workbench.studies.wall.study import Candidate, HeatBudget, Layer, WallStudy
+from workbench.studykind import InputSpec, StudyKind
 
 
 def to_candidate(c: Any) -> Candidate:
