@@ -18,15 +18,14 @@ def _split_dotted(name: str) -> tuple[str, ...]:
     return tuple(p.strip().strip('"').strip("'") for p in name.split("."))
 
 
-def _line_of(text: str | None, path: Sequence[str | int]) -> int | None:
-    """Line (1-based) where the key ``path`` is written, or its closest enclosing line."""
-    if not text:
-        return None
-    path = tuple(path)
-    lines = text.split("\n")
+def _sections(lines: Sequence[str]):
+    """``(line number, text, section in force, opens a section)`` for each line.
+
+    The section is the key path of the table a line belongs to, with the index of
+    each array-of-tables entry (``("candidates", 2)``); header lines open one.
+    """
     section: tuple = ()
     counts: dict[tuple, int] = {}
-    best: int | None = None
     for no, raw in enumerate(lines, 1):
         m = _HEADER_LINE.match(raw)
         if m and not raw.lstrip().startswith("#"):
@@ -36,14 +35,33 @@ def _line_of(text: str | None, path: Sequence[str | int]) -> int | None:
                 section = (*_with_parent_index(name, counts), counts[name])
             else:
                 section = _with_parent_index(name, counts)
+            yield no, raw, section, True
+        else:
+            yield no, raw, section, False
+
+
+def _line_key(raw: str) -> tuple[str, ...] | None:
+    """The (dotted) key written on a ``key = value`` line, or None."""
+    k = _KEY_LINE.match(raw)
+    return None if k is None else _split_dotted(k.group(1) or k.group(2) or k.group(3))
+
+
+def _line_of(text: str | None, path: Sequence[str | int]) -> int | None:
+    """Line (1-based) where the key ``path`` is written, or its closest enclosing line."""
+    if not text:
+        return None
+    path = tuple(path)
+    lines = text.split("\n")
+    best: int | None = None
+    for no, raw, section, header in _sections(lines):
+        if header:
             if path[: len(section)] == section:
                 best = no
             continue
-        k = _KEY_LINE.match(raw)
-        if not k:
+        key = _line_key(raw)
+        if key is None:
             continue
-        key = k.group(1) or k.group(2) or k.group(3)
-        full = (*section, *_split_dotted(key))
+        full = (*section, *key)
         n = len(full)
         if path[:n] == full:
             if len(path) > n and isinstance(path[n], int) and raw.rstrip().endswith("["):
@@ -254,25 +272,15 @@ def _locate(text: str | None, path: Sequence[str | int]) -> tuple[int | None, in
 
 def _key_at_line(text: str, line: int) -> str | None:
     """Dotted key written on ``line`` (or the table opened there), for syntax errors."""
-    section: tuple = ()
-    counts: dict[tuple, int] = {}
-    for no, raw in enumerate(text.split("\n"), 1):
-        m = _HEADER_LINE.match(raw)
-        if m and not raw.lstrip().startswith("#"):
-            name = _split_dotted(m.group(2))
-            if m.group(1) == "[[":
-                counts[name] = counts.get(name, -1) + 1
-                section = (*_with_parent_index(name, counts), counts[name])
-            else:
-                section = _with_parent_index(name, counts)
-            if no == line:
-                return _dotted(section)
+    for no, raw, section, header in _sections(text.split("\n")):
+        if no != line:
             continue
-        if no == line:
-            k = _KEY_LINE.match(raw)
-            if k:
-                return _dotted((*section, *_split_dotted(k.group(1) or k.group(2) or k.group(3))))
-            return _dotted(section) or None
+        if header:
+            return _dotted(section)
+        key = _line_key(raw)
+        if key is not None:
+            return _dotted((*section, *key))
+        return _dotted(section) or None
     return None
 
 
